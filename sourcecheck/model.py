@@ -1,0 +1,243 @@
+"""The dataclasses that cross stage boundaries.
+
+The pipeline is draft -> claims -> sources -> index -> judgment -> report. Each stage
+takes and returns only the types defined here, so a stage can be rewritten (a new draft
+format, another retriever) without the others noticing. Nothing in this module does work;
+it is the vocabulary the stages share.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from enum import Enum
+
+
+@dataclass(frozen=True)
+class Problem:
+    """One piece of bad input: the file it concerns and a one-line, human message.
+
+    Problems are collected, never raised past a stage: a broken PDF must not stop the
+    check of every other claim.
+    """
+
+    file: str
+    message: str
+
+
+# --- draft stage -----------------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class Reference:
+    """One entry of the draft's reference list.
+
+    ``key`` is how markers point at the entry: the number for numbered lists ("3"), or
+    a generated author-year key ("okafor2019a") for author-year lists. ``authors`` holds
+    family names in the order printed, because author-year markers name the first one.
+    """
+
+    key: str
+    text: str
+    authors: tuple[str, ...] = ()
+    year: int | None = None
+    year_suffix: str = ""
+    title: str | None = None
+    doi: str | None = None
+    line: int = 0
+
+
+@dataclass(frozen=True)
+class Citation:
+    """One cited work inside a marker, as written in the draft.
+
+    A marker such as "[2, 5]" yields two citations that share ``marker``; ``label`` is
+    the single work ("[2]"). ``key`` is the matching reference key, or None when the
+    draft's reference list has no entry for it.
+    """
+
+    marker: str
+    label: str
+    key: str | None
+    locator: str | None = None
+
+
+@dataclass(frozen=True)
+class Claim:
+    """A sentence of the draft that carries at least one citation."""
+
+    id: str
+    text: str
+    line: int
+    citations: tuple[Citation, ...]
+
+
+@dataclass
+class Draft:
+    """Everything the draft stage learned from one manuscript file."""
+
+    path: str
+    claims: list[Claim]
+    references: list[Reference]
+    problems: list[Problem] = field(default_factory=list)
+
+    def uncited_references(self) -> list[Reference]:
+        """Entries of the reference list that no marker points at."""
+        cited = {c.key for claim in self.claims for c in claim.citations if c.key}
+        return [r for r in self.references if r.key not in cited]
+
+
+# --- sources stage ---------------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class Passage:
+    """A few consecutive sentences of one source page: the unit that is retrieved and shown.
+
+    ``source`` is the source's display path; ``page`` is the 1-based page of the PDF;
+    ``ordinal`` is the passage's position within its source, so neighbours can be found.
+    """
+
+    source: str
+    page: int
+    text: str
+    ordinal: int
+
+
+@dataclass
+class Source:
+    """One readable source PDF: its identity, what can match it to a reference, and its passages."""
+
+    path: str
+    sha256: str
+    pages: int
+    title: str | None
+    doi: str | None
+    first_page_text: str
+    passages: list[Passage]
+    author: str | None = None
+
+
+# --- matching (reference -> source) ----------------------------------------------------
+
+
+class MatchMethod(str, Enum):
+    """How a reference entry was tied to a source file; reported so a person can doubt it."""
+
+    MAP = "map"
+    DOI = "doi"
+    TITLE = "title"
+    AUTHOR_YEAR = "author-year"
+
+
+@dataclass(frozen=True)
+class SourceMatch:
+    """A reference entry matched to a source file, with how and how sure."""
+
+    key: str
+    source: str
+    method: MatchMethod
+    similarity: float = 1.0
+
+
+# --- index stage -----------------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class Hit:
+    """A passage retrieved for a query, with the evidence scores the judge reads.
+
+    ``fused`` orders hits; ``dense`` is the cosine similarity of claim and passage; ``bm25``
+    is the raw Okapi BM25 score; ``coverage`` the share of the claim's content words found
+    in the passage.
+    """
+
+    passage: Passage
+    fused: float
+    dense: float
+    bm25: float
+    coverage: float
+
+
+# --- judgment stage --------------------------------------------------------------------
+
+
+class Band(str, Enum):
+    """The one verdict each check gets. Their meaning is in the README."""
+
+    ANCHORED = "anchored"
+    LOOSE = "loose"
+    CONFLICT = "conflict"
+    ADRIFT = "adrift"
+    UNVERIFIABLE = "unverifiable"
+
+
+@dataclass(frozen=True)
+class Reason:
+    """A machine-readable code with the sentence a person reads."""
+
+    code: str
+    message: str
+
+
+@dataclass(frozen=True)
+class Evidence:
+    """A passage shown to the user as support (or lack of it) for a claim."""
+
+    text: str
+    page: int
+    score: float
+    source: str
+
+
+@dataclass
+class Check:
+    """One claim checked against one cited work."""
+
+    citation: Citation
+    reference: Reference | None
+    source: str | None
+    band: Band
+    score: float
+    reasons: list[Reason] = field(default_factory=list)
+    evidence: list[Evidence] = field(default_factory=list)
+
+
+@dataclass
+class ClaimResult:
+    """A claim and the checks of every work it cites."""
+
+    claim: Claim
+    checks: list[Check]
+
+
+# --- report ----------------------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class ModelInfo:
+    """Which embedding model ran, so a report can be reproduced."""
+
+    name: str
+    path: str
+
+
+@dataclass
+class Report:
+    """The whole result of one run: what the reporters render."""
+
+    draft: str
+    sources: str
+    model: ModelInfo
+    claims: list[ClaimResult]
+    references: list[Reference]
+    matches: dict[str, SourceMatch]
+    unused_sources: list[str]
+    problems: list[Problem]
+
+    def band_counts(self) -> dict[Band, int]:
+        """How many checks fell in each band, every band present (zero where none)."""
+        counts = {band: 0 for band in Band}
+        for result in self.claims:
+            for check in result.checks:
+                counts[check.band] += 1
+        return counts
