@@ -9,7 +9,7 @@ it is the vocabulary the stages share.
 from __future__ import annotations
 
 from dataclasses import dataclass, field
-from enum import Enum
+from enum import StrEnum
 
 
 @dataclass(frozen=True)
@@ -120,7 +120,7 @@ class Source:
 # --- matching (reference -> source) ----------------------------------------------------
 
 
-class MatchMethod(str, Enum):
+class MatchMethod(StrEnum):
     """How a reference entry was tied to a source file; reported so a person can doubt it."""
 
     MAP = "map"
@@ -161,7 +161,7 @@ class Hit:
 # --- judgment stage --------------------------------------------------------------------
 
 
-class Band(str, Enum):
+class Band(StrEnum):
     """The one verdict each check gets. Their meaning is in the README."""
 
     ANCHORED = "anchored"
@@ -233,6 +233,20 @@ class Report:
     matches: dict[str, SourceMatch]
     unused_sources: list[str]
     problems: list[Problem]
+
+    def cited_keys(self) -> set[str]:
+        """Reference keys that at least one citation in the text resolves to."""
+        return {c.citation.key for r in self.claims for c in r.checks if c.citation.key}
+
+    def uncited_references(self) -> list[Reference]:
+        """Entries of the reference list that nothing in the text cites."""
+        cited = self.cited_keys()
+        return [r for r in self.references if r.key not in cited]
+
+    def unmatched_references(self) -> list[Reference]:
+        """Cited entries with no source file in the folder."""
+        cited = self.cited_keys()
+        return [r for r in self.references if r.key in cited and r.key not in self.matches]
 
     def band_counts(self) -> dict[Band, int]:
         """How many checks fell in each band, every band present (zero where none)."""

@@ -1,0 +1,44 @@
+# sourcecheck: every set-up step lives here, so a fresh clone needs only `make demo` / `make test`.
+#
+# TORCH_SPEC is the one place torch is chosen. The default takes the CPU build this
+# machine keeps on disk; elsewhere, pass the CPU wheel index, e.g.
+#   make test TORCH_SPEC="torch==2.13.0 --index-url https://download.pytorch.org/whl/cpu"
+PYTHON ?= python3
+VENV ?= .venv
+TORCH_SPEC ?= torch==2.13.0
+BIN := $(VENV)/bin
+STAMP := $(VENV)/.installed
+
+.PHONY: install demo test lint format bench samples clean
+
+$(STAMP): pyproject.toml Makefile
+	$(PYTHON) -m venv $(VENV)
+	$(BIN)/python -m pip install --quiet --upgrade pip
+	$(BIN)/python -m pip install --quiet $(TORCH_SPEC)
+	$(BIN)/python -m pip install --quiet -e '.[dev]'
+	touch $(STAMP)
+
+install: $(STAMP)
+
+demo: $(STAMP)
+	$(BIN)/sourcecheck check sample_manuscript/draft.md --sources sample_sources
+
+test: $(STAMP)
+	$(BIN)/ruff check sourcecheck tests bench scripts
+	$(BIN)/python -m pytest -q
+
+lint: $(STAMP)
+	$(BIN)/ruff check sourcecheck tests bench scripts
+	$(BIN)/ruff format --check sourcecheck tests bench scripts
+
+format: $(STAMP)
+	$(BIN)/ruff format sourcecheck tests bench scripts
+
+bench: $(STAMP)
+	$(BIN)/python bench/run.py
+
+samples: $(STAMP)
+	$(BIN)/python scripts/make_samples.py
+
+clean:
+	rm -rf $(VENV) .pytest_cache .ruff_cache bench/out

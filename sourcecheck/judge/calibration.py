@@ -1,0 +1,48 @@
+"""The fitted mapping from evidence features to a backing score and a band.
+
+The parameters live in ``calibration.json`` beside this module, written by
+``bench/calibrate.py`` from a labelled claim-verification dataset; nothing here is set
+by hand. The score is a logistic model's probability that the source backs the claim;
+the band thresholds were chosen on the same fit split (the file says how).
+"""
+
+from __future__ import annotations
+
+import json
+import math
+from dataclasses import dataclass
+from importlib import resources
+
+from sourcecheck.judge.features import FEATURE_NAMES, Features
+
+
+@dataclass(frozen=True)
+class Calibration:
+    """Logistic weights over FEATURE_NAMES plus the two band thresholds on the score."""
+
+    weights: tuple[float, ...]
+    bias: float
+    anchored_at: float
+    adrift_below: float
+    provenance: str
+
+    def score(self, features: Features) -> float:
+        """Probability in [0, 1] that the passage backs the claim."""
+        z = self.bias + sum(w * x for w, x in zip(self.weights, features.vector(), strict=True))
+        return 1.0 / (1.0 + math.exp(-z))
+
+
+def load_calibration(text: str | None = None) -> Calibration:
+    """Read the shipped parameters (or ``text``, a JSON document of the same shape)."""
+    if text is None:
+        text = resources.files("sourcecheck.judge").joinpath("calibration.json").read_text("utf-8")
+    data = json.loads(text)
+    if tuple(data["features"]) != FEATURE_NAMES:
+        raise ValueError(f"calibration features {data['features']} != {FEATURE_NAMES}")
+    return Calibration(
+        weights=tuple(float(w) for w in data["weights"]),
+        bias=float(data["bias"]),
+        anchored_at=float(data["thresholds"]["anchored_at"]),
+        adrift_below=float(data["thresholds"]["adrift_below"]),
+        provenance=str(data.get("made_by", "")),
+    )

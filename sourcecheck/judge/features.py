@@ -1,0 +1,46 @@
+"""The evidence features the backing score is computed from.
+
+Kept in one place so the calibration script (bench/calibrate.py) and the judge compute
+exactly the same numbers from the same hits.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from sourcecheck.judge.numbers import NumberFinding, unsupported_numbers
+from sourcecheck.model import Hit
+
+FEATURE_NAMES = ("dense", "coverage", "number_absent", "number_different")
+
+
+@dataclass(frozen=True)
+class Features:
+    """What the judge knows about a claim and the best passages of one source."""
+
+    dense: float
+    coverage: float
+    numbers: tuple[NumberFinding, ...]
+
+    @property
+    def number_absent(self) -> bool:
+        return any(f.counterpart is None for f in self.numbers)
+
+    @property
+    def number_different(self) -> bool:
+        return any(f.counterpart is not None for f in self.numbers)
+
+    def vector(self) -> list[float]:
+        """The features in FEATURE_NAMES order, as the fitted model expects them."""
+        return [self.dense, self.coverage, float(self.number_absent), float(self.number_different)]
+
+
+def features_of(claim: str, hits: list[Hit]) -> Features:
+    """Features of ``claim`` against ``hits`` (best first, non-empty, one source)."""
+    best = hits[0]
+    findings = unsupported_numbers(claim, best.passage.text, [h.passage.text for h in hits[1:]])
+    return Features(
+        dense=max(h.dense for h in hits),
+        coverage=max(h.coverage for h in hits),
+        numbers=tuple(findings),
+    )

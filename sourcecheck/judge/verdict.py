@@ -1,0 +1,140 @@
+"""From evidence to one band, a score and the reasons a person reads.
+
+Order of the rules (each stated in the README):
+1. no reference entry, no matched file, or an unreadable file -> ``unverifiable``;
+2. nothing in the cited source resembles the claim (the topical score, which ignores the
+   number checks, is below the adrift threshold) -> ``adrift``;
+3. the best passage gives another value for a number of the claim -> ``conflict``;
+4. the backing score reaches the anchored threshold and every number is found -> ``anchored``;
+5. otherwise -> ``loose`` (a number is absent, or the passage only partly says the claim).
+"""
+
+from __future__ import annotations
+
+from dataclasses import replace
+
+from sourcecheck.judge.calibration import Calibration
+from sourcecheck.judge.features import Features, features_of
+from sourcecheck.model import Band, Check, Citation, Evidence, Hit, Reason, Reference
+
+EVIDENCE_SHOWN = 2
+
+
+def _page(hit: Hit) -> str:
+    return f"p. {hit.passage.page}"
+
+
+def unverifiable(citation: Citation, reference: Reference | None, source: str | None, reason: Reason) -> Check:
+    """A check that cannot be made: the reason says what is missing."""
+    return Check(
+        citation=citation,
+        reference=reference,
+        source=source,
+        band=Band.UNVERIFIABLE,
+        score=0.0,
+        reasons=[reason],
+    )
+
+
+def topical_score(calibration: Calibration, features: Features) -> float:
+    """The backing score with the number checks left out: is the passage about the claim?"""
+    return calibration.score(replace(features, numbers=()))
+
+
+def judge(
+    claim: str,
+    citation: Citation,
+    reference: Reference | None,
+    source: str,
+    hits: list[Hit],
+    calibration: Calibration,
+) -> Check:
+    """Band, score, reasons and evidence for ``claim`` against the hits of its cited source."""
+    if not hits:
+        return unverifiable(
+            citation,
+            reference,
+            source,
+            Reason("source-unreadable", f"{source} has no readable text to check against"),
+        )
+    features = features_of(claim, hits)
+    score = calibration.score(features)
+    topical = topical_score(calibration, features)
+    best = hits[0]
+    evidence = [
+        Evidence(
+            text=h.passage.text,
+            page=h.passage.page,
+            score=round(max(0.0, min(1.0, h.dense)), 3),
+            source=h.passage.source,
+        )
+        for h in hits[:EVIDENCE_SHOWN]
+    ]
+    match_words = f"similarity {features.dense:.2f}, {features.coverage:.0%} of the claim's content words"
+    reasons: list[Reason] = []
+    if topical < calibration.adrift_below:
+        band = Band.ADRIFT
+        reasons.append(
+            Reason(
+                "no-match",
+                f"nothing in {source} resembles the claim (closest: {_page(best)}, {match_words})",
+            )
+        )
+    elif features.number_different:
+        band = Band.CONFLICT
+        for finding in features.numbers:
+            if finding.counterpart is not None:
+                reasons.append(
+                    Reason(
+                        "number-mismatch",
+                        f"claim says {finding.claim.text}, source says {finding.counterpart.text} ({_page(best)})",
+                    )
+                )
+    elif score >= calibration.anchored_at and not features.number_absent:
+        band = Band.ANCHORED
+        reasons.append(Reason("close-match", f"{_page(best)} states the claim ({match_words})"))
+    else:
+        band = Band.LOOSE
+        for finding in features.numbers:
+            reasons.append(
+                Reason(
+                    "number-absent",
+                    f"claim says {finding.claim.text}; the cited source's closest passages ({_page(best)}) do not",
+                )
+            )
+        if not features.numbers:
+            reasons.append(
+                Reason(
+                    "partial-match",
+                    f"{_page(best)} is related but does not fully state the claim ({match_words})",
+                )
+            )
+    return Check(
+        citation=citation,
+        reference=reference,
+        source=source,
+        band=band,
+        score=round(score, 3),
+        reasons=reasons,
+        evidence=evidence,
+    )
+
+
+def better_source_reason(check: Check, alternative: Hit, claim: str, calibration: Calibration) -> Reason | None:
+    """A ``better-source`` reason when another file backs the claim and the cited one does not."""
+    if check.band not in (Band.ADRIFT, Band.LOOSE):
+        return None
+    other = calibration.score(features_of(claim, [alternative]))
+    if other < calibration.anchored_at or other <= check.score:
+        return None
+    return Reason(
+        "better-source",
+        f"{alternative.passage.source} backs the claim better (p. {alternative.passage.page}, score {other:.2f}): "
+        f'"{trim(alternative.passage.text, 30)}"',
+    )
+
+
+def trim(text: str, words: int) -> str:
+    """The first ``words`` words of ``text``, with an ellipsis when cut."""
+    parts = text.split()
+    return " ".join(parts[:words]) + (" …" if len(parts) > words else "")

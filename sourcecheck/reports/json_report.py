@@ -1,0 +1,78 @@
+"""The JSON report: the contract of DESIGN.md that downstream tools read.
+
+Fields may be added; the ones in the contract keep their names until ``SCHEMA`` changes.
+"""
+
+from __future__ import annotations
+
+import json
+from typing import Any
+
+from sourcecheck.model import Check, Reference, Report
+from sourcecheck.reports.caution import CAUTION
+
+SCHEMA = "sourcecheck.report/1"
+
+
+def _reference(reference: Reference) -> dict[str, Any]:
+    return {
+        "key": reference.key,
+        "text": reference.text,
+        "title": reference.title,
+        "authors": list(reference.authors),
+        "year": reference.year,
+        "doi": reference.doi,
+    }
+
+
+def _check(check: Check) -> dict[str, Any]:
+    return {
+        "citation": check.citation.label,
+        "marker": check.citation.marker,
+        "locator": check.citation.locator,
+        "reference": _reference(check.reference) if check.reference else None,
+        "source": check.source,
+        "band": check.band.value,
+        "score": check.score,
+        "reasons": [{"code": r.code, "message": r.message} for r in check.reasons],
+        "evidence": [{"text": e.text, "page": e.page, "score": e.score, "source": e.source} for e in check.evidence],
+    }
+
+
+def to_dict(report: Report) -> dict[str, Any]:
+    """The report as plain JSON-ready data, in the contract's shape."""
+    cited = report.cited_keys()
+    return {
+        "schema": SCHEMA,
+        "caution": CAUTION,
+        "draft": report.draft,
+        "sources": report.sources,
+        "model": {"name": report.model.name, "path": report.model.path},
+        "summary": {band.value: count for band, count in report.band_counts().items()},
+        "claims": [
+            {
+                "id": result.claim.id,
+                "text": result.claim.text,
+                "location": {"line": result.claim.line},
+                "checks": [_check(c) for c in result.checks],
+            }
+            for result in report.claims
+        ],
+        "references": [
+            {
+                "key": r.key,
+                "text": r.text,
+                "source": report.matches[r.key].source if r.key in report.matches else None,
+                "matched_by": report.matches[r.key].method.value if r.key in report.matches else None,
+                "cited": r.key in cited,
+            }
+            for r in report.references
+        ],
+        "unused_sources": list(report.unused_sources),
+        "problems": [{"file": p.file, "message": p.message} for p in report.problems],
+    }
+
+
+def dumps(report: Report) -> str:
+    """The report as an indented UTF-8 JSON document ending in a newline."""
+    return json.dumps(to_dict(report), ensure_ascii=False, indent=2) + "\n"

@@ -1,0 +1,66 @@
+"""The passage and vector cache: round trips, atomic writes, corrupt entries rebuilt."""
+
+from pathlib import Path
+
+import numpy as np
+
+from sourcecheck.index.cache import Cache
+from sourcecheck.model import Passage, Source
+
+
+def _source(path: str = "src/a.pdf") -> Source:
+    return Source(
+        path=path,
+        sha256="ab" * 32,
+        pages=2,
+        title="Tidal heron survey",
+        doi="10.55555/x1",
+        first_page_text="Tidal heron survey",
+        passages=[Passage(path, 1, "Heron nests rose by 18%.", 0), Passage(path, 2, "Tides fell.", 1)],
+    )
+
+
+def test_source_round_trip_takes_the_new_display_path(tmp_path: Path) -> None:
+    cache = Cache(tmp_path)
+    cache.save_source(_source(), "x1")
+    loaded = cache.load_source("ab" * 32, "x1", "renamed/b.pdf")
+    assert loaded is not None
+    assert loaded.path == "renamed/b.pdf"
+    assert [p.source for p in loaded.passages] == ["renamed/b.pdf"] * 2
+    assert [p.page for p in loaded.passages] == [1, 2]
+    assert loaded.doi == "10.55555/x1"
+
+
+def test_other_extractor_version_is_a_miss(tmp_path: Path) -> None:
+    cache = Cache(tmp_path)
+    cache.save_source(_source(), "x1")
+    assert cache.load_source("ab" * 32, "x2", "a.pdf") is None
+    assert cache.warnings == []
+
+
+def test_corrupt_source_entry_is_a_miss_with_a_warning(tmp_path: Path) -> None:
+    cache = Cache(tmp_path)
+    cache.save_source(_source(), "x1")
+    entry = next((tmp_path / "sources").glob("*.json"))
+    entry.write_text('{"format": 1, "sha256": ', encoding="utf-8")
+    assert cache.load_source("ab" * 32, "x1", "a.pdf") is None
+    assert len(cache.warnings) == 1 and "rebuilt" in cache.warnings[0]
+
+
+def test_vectors_round_trip_and_wrong_shape_is_rebuilt(tmp_path: Path) -> None:
+    cache = Cache(tmp_path)
+    vectors = np.random.default_rng(0).random((3, 4)).astype(np.float32)
+    cache.save_vectors("passages", "k", vectors)
+    assert np.array_equal(cache.load_vectors("passages", "k", 3), vectors)
+    assert cache.load_vectors("passages", "k", 5) is None
+    (tmp_path / "passages" / "k.npy").write_bytes(b"\x93NUMPY garbage")
+    assert cache.load_vectors("passages", "k", 3) is None
+    assert len(cache.warnings) == 2
+
+
+def test_writes_leave_no_temporary_files(tmp_path: Path) -> None:
+    cache = Cache(tmp_path)
+    cache.save_source(_source(), "x1")
+    cache.save_vectors("passages", "k", np.zeros((1, 2)))
+    leftovers = [p for p in tmp_path.rglob("*") if p.name.startswith(".tmp-")]
+    assert leftovers == []

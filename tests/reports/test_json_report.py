@@ -1,0 +1,41 @@
+"""The JSON report keeps the contract of DESIGN.md."""
+
+import json
+
+from sourcecheck.reports.caution import CAUTION
+from sourcecheck.reports.json_report import SCHEMA, dumps
+from tests.reports.sample_report import sample_report
+
+
+def test_top_level_fields_of_the_contract() -> None:
+    data = json.loads(dumps(sample_report()))
+    assert data["schema"] == SCHEMA == "sourcecheck.report/1"
+    for key in ("draft", "sources", "model", "claims", "references", "unused_sources", "problems"):
+        assert key in data
+    assert data["model"] == {"name": "all-MiniLM-L6-v2", "path": "/models/minilm"}
+    assert data["caution"] == CAUTION
+
+
+def test_claims_and_checks_carry_contract_fields() -> None:
+    data = json.loads(dumps(sample_report()))
+    claim = data["claims"][0]
+    assert claim["id"] == "c1" and claim["location"] == {"line": 4}
+    check = claim["checks"][0]
+    assert check["citation"] == "[1]"
+    assert check["reference"]["key"] == "1" and check["reference"]["year"] == 2021
+    assert check["band"] == "conflict" and 0.0 <= check["score"] <= 1.0
+    assert check["reasons"] == [{"code": "number-mismatch", "message": "claim says 23%, source says 18% (p. 4)"}]
+    assert check["evidence"][0]["page"] == 4
+    assert len(data["claims"][1]["checks"]) == 2  # one check per cited work
+    assert data["claims"][1]["checks"][1]["reference"] is None
+
+
+def test_references_unused_sources_and_problems() -> None:
+    data = json.loads(dumps(sample_report()))
+    refs = {r["key"]: r for r in data["references"]}
+    assert refs["1"]["source"] == "src/ferrow.pdf" and refs["1"]["matched_by"] == "doi"
+    assert refs["2"]["source"] is None and refs["2"]["cited"] is True
+    assert refs["3"]["cited"] is False
+    assert data["unused_sources"] == ["src/orphan.pdf"]
+    assert data["problems"] == [{"file": "src/broken.pdf", "message": "not a PDF (no %PDF- header)"}]
+    assert data["summary"]["conflict"] == 1 and data["summary"]["unverifiable"] == 2
