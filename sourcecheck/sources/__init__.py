@@ -1,1 +1,31 @@
-"""sources stage."""
+"""The sources stage: read source PDFs into passages, and match references to them.
+
+Public surface (everything else in this package is private and may change):
+
+    EXTRACTOR_VERSION   changes whenever passages for the same bytes would differ;
+                        part of the cache key
+    discover_pdfs       the PDFs in a sources folder
+    file_sha256         a file's content hash
+    read_source         one PDF -> Source, or a Problem (never raises)
+    load_mapping        the --map file -> {reference key: file}
+    match_references    reference entries -> SourceMatch per key, plus mapping problems
+"""
+
+from __future__ import annotations
+
+from sourcecheck.sources._files import discover_pdfs, file_sha256
+from sourcecheck.sources._mapping import load_mapping
+from sourcecheck.sources._match import match_references
+from sourcecheck.sources._reader import read_source
+
+#: Bump on any change to extraction, cleaning or passage cutting.
+EXTRACTOR_VERSION = "sources-1"
+
+__all__ = [
+    "EXTRACTOR_VERSION",
+    "discover_pdfs",
+    "file_sha256",
+    "load_mapping",
+    "match_references",
+    "read_source",
+]

@@ -1,0 +1,87 @@
+"""Cutting a page's paragraphs into passages: a few whole sentences, at most N words.
+
+A passage is what retrieval ranks and what a person reads as evidence, so it should be
+whole sentences (pysbd, which knows "et al." and "Fig. 2" are not sentence ends), short
+enough for the embedding model (all-MiniLM-L6-v2 reads 256 word pieces) and never spread
+over two pages, so its page number is exact. Passages do not cross paragraph boundaries
+either: one paragraph usually makes one point, and the boundary is free to respect.
+"""
+
+from __future__ import annotations
+
+import math
+import re
+from functools import lru_cache
+
+import pysbd
+
+from sourcecheck.model import Passage
+
+#: A paragraph of at most this many words with no closing punctuation is a heading, a
+#: figure label or a title fragment ("2 Methods", "Table 3"): it states nothing a claim
+#: could rest on, so it makes no passage.
+FRAGMENT_WORDS = 3
+_CLOSES = re.compile(r"[.!?:;][\"'”’)\]]*$")
+
+
+@lru_cache(maxsize=1)
+def _segmenter() -> pysbd.Segmenter:
+    # clean=False keeps the text exactly as given, so passages quote the source verbatim.
+    return pysbd.Segmenter(language="en", clean=False)
+
+
+def split_sentences(text: str) -> list[str]:
+    """Sentences of ``text`` by pysbd, stripped, empties dropped."""
+    return [s.strip() for s in _segmenter().segment(text) if s.strip()]
+
+
+def _split_long(sentence: str, max_words: int) -> list[str]:
+    """A sentence longer than ``max_words`` cut at word boundaries into equal-ish pieces."""
+    words = sentence.split()
+    if len(words) <= max_words:
+        return [sentence]
+    pieces = math.ceil(len(words) / max_words)
+    size = math.ceil(len(words) / pieces)
+    return [" ".join(words[i : i + size]) for i in range(0, len(words), size)]
+
+
+def is_fragment(paragraph: str) -> bool:
+    """A heading-like scrap: very few words and no closing punctuation."""
+    return len(paragraph.split()) <= FRAGMENT_WORDS and not _CLOSES.search(paragraph)
+
+
+def pack_paragraph(paragraph: str, max_words: int) -> list[str]:
+    """Consecutive sentences of one paragraph, greedily packed up to ``max_words`` words."""
+    chunks: list[str] = []
+    current: list[str] = []
+    count = 0
+    for sentence in split_sentences(paragraph):
+        for piece in _split_long(sentence, max_words):
+            words = len(piece.split())
+            if current and count + words > max_words:
+                chunks.append(" ".join(current))
+                current, count = [], 0
+            current.append(piece)
+            count += words
+    if current:
+        chunks.append(" ".join(current))
+    return chunks
+
+
+def make_passages(source: str, pages: list[list[str]], max_words: int, start: int = 0) -> list[Passage]:
+    """Passages of every page; ``pages`` holds each page's paragraphs as strings.
+
+    ``ordinal`` counts up from ``start`` across the whole source, in reading order.
+    """
+    if max_words < 1:
+        raise ValueError("max_words must be at least 1")
+    passages: list[Passage] = []
+    ordinal = start
+    for number, paragraphs in enumerate(pages, start=1):
+        for paragraph in paragraphs:
+            if is_fragment(paragraph):
+                continue
+            for text in pack_paragraph(paragraph, max_words):
+                passages.append(Passage(source=source, page=number, text=text, ordinal=ordinal))
+                ordinal += 1
+    return passages

@@ -1,0 +1,129 @@
+"""From a PDF file to a :class:`~sourcecheck.model.Source`: text, clean-up, passages.
+
+Order of work, and why:
+  1. pypdf text per page, characters normalised (ligatures, odd spaces).
+  2. Running headers/footers and page numbers dropped, using all pages as evidence.
+  3. The reference list cut out (it needs page furniture gone so its heading is a line).
+  4. Lines grouped into paragraphs; line-end hyphens mended with the document's own
+     vocabulary as the judge of compounds.
+  5. Passages packed from each page's paragraphs.
+The DOI is searched before step 2, because journals print it in a running line.
+
+Pages without text (a scanned figure page in an otherwise born-digital PDF) are kept as
+empty pages, so page numbers stay true; only a PDF with no text on any page is refused.
+"""
+
+from __future__ import annotations
+
+import hashlib
+import re
+from pathlib import Path
+
+from sourcecheck.model import Problem, Source
+from sourcecheck.sources._chars import normalize_chars
+from sourcecheck.sources._doi import find_dois
+from sourcecheck.sources._layout import (
+    drop_running_lines,
+    group_paragraphs,
+    join_lines,
+    split_lines,
+    typical_length,
+    vocabulary,
+)
+from sourcecheck.sources._passages import make_passages
+from sourcecheck.sources._pdf import PdfUnreadable, RawPdf, one_line, read_pdf
+from sourcecheck.sources._refsection import before_reference_heading, cut_reference_sections
+
+#: How much of page 1 is kept for matching a reference to this source.
+FIRST_PAGE_CHARS = 2000
+NO_TEXT = "no text layer (scanned image?); run OCR first"
+
+# Metadata titles that name the file or the authoring tool rather than the work.
+_JUNK_TITLE = re.compile(
+    r"^(?:untitled|title|document\d*|microsoft (?:word|powerpoint) - .*|.*\.(?:pdf|docx?|tex|dvi|"
+    r"rtf|odt|indd|qxd|ps|eps))$",
+    re.IGNORECASE,
+)
+
+
+def clean_title(value: str | None) -> str | None:
+    """A metadata title worth trusting, or None for tool/file-name placeholders."""
+    if not value:
+        return None
+    value = " ".join(normalize_chars(value).split())
+    if len(value) < 4 or _JUNK_TITLE.match(value):
+        return None
+    return value
+
+
+def _doi(raw: RawPdf, pages: list[list[str]]) -> str | None:
+    """Metadata DOI first (info dictionary, then XMP), else the first one on pages 1-2."""
+    for key in ("/doi", "/DOI", "/Subject", "/Keywords", "/Title"):
+        if key in raw.info and (found := find_dois(raw.info[key])):
+            return found[0]
+    for key, value in raw.info.items():
+        if key not in ("/Producer", "/Creator") and (found := find_dois(value)):
+            return found[0]
+    if found := find_dois(raw.xmp_text):
+        return found[0]
+    for lines in pages[:2]:
+        if found := find_dois("\n".join(before_reference_heading(lines))):
+            return found[0]
+    return None
+
+
+def _first_page_text(paragraphs: list[str]) -> str:
+    text = "\n".join(paragraphs)
+    if len(text) <= FIRST_PAGE_CHARS:
+        return text
+    cut = text.rfind(" ", 0, FIRST_PAGE_CHARS)
+    return text[: cut if cut > 0 else FIRST_PAGE_CHARS]
+
+
+def read_source(path: Path, display: str, sha256: str | None = None, max_words: int = 90) -> Source | Problem:
+    """Read one source PDF; any failure is a :class:`Problem` naming ``display``.
+
+    Args:
+        path: the file on disk.
+        display: how the file is named to the user and in passages (its display path).
+        sha256: the file's hash if the caller has it already (it keys the cache).
+        max_words: the largest passage, in whitespace-separated words.
+    """
+    try:
+        data = Path(path).read_bytes()
+    except OSError as exc:
+        return Problem(file=display, message=f"cannot open ({exc.strerror or exc})")
+    try:
+        raw = read_pdf(data)
+    except PdfUnreadable as exc:
+        return Problem(file=display, message=str(exc))
+    except Exception as exc:  # pypdf failing where _pdf did not expect it: still one line
+        return Problem(file=display, message=f"truncated or corrupt PDF ({one_line(exc)})")
+    texts = [normalize_chars(page) for page in raw.pages]
+    if not any(ch.isalnum() for page in texts for ch in page):
+        return Problem(file=display, message=NO_TEXT)
+    try:
+        return _build(raw, texts, display, sha256 or hashlib.sha256(data).hexdigest(), max_words)
+    except Exception as exc:  # a bug of ours on odd text must not stop the run either
+        return Problem(file=display, message=f"text could not be processed ({exc!r})"[:160])
+
+
+def _build(raw: RawPdf, texts: list[str], display: str, sha256: str, max_words: int) -> Source:
+    lines = [split_lines(page) for page in texts]
+    doi = _doi(raw, lines)
+    body = cut_reference_sections(drop_running_lines(lines))
+    vocab = vocabulary("\n".join(texts))
+    median = typical_length(body)
+    paragraphs = [[join_lines(p, vocab) for p in group_paragraphs(page, median)] for page in body]
+    title = clean_title(raw.info.get("/Title")) or clean_title(raw.xmp_title)
+    author = raw.info.get("/Author") or None
+    return Source(
+        path=display,
+        sha256=sha256,
+        pages=len(texts),
+        title=title,
+        doi=doi,
+        first_page_text=_first_page_text(paragraphs[0]) if paragraphs else "",
+        passages=make_passages(display, paragraphs, max_words),
+        author=author,
+    )

@@ -1,0 +1,60 @@
+"""Shared fixtures for the sources-stage tests: invented article text and built PDFs."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import pytest
+
+from tests.pdf_fixtures import paper_pdf
+
+#: Invented body text, distinct on every page so no body line looks like a running line.
+PAGE_TEXTS: list[list[str]] = [
+    [
+        "Introduction",
+        "Coastal wetlands store carbon in waterlogged soils for centuries. Their loss "
+        "releases that store and weakens the shoreline against storm surges. Managers in "
+        "the northern estuary asked how fast the marsh edge was retreating.",
+    ],
+    [
+        "Methods",
+        "We surveyed forty transects along the estuary each spring from 2012 to 2018. "
+        "Edge position was measured with a differential GPS receiver. Soil cores were "
+        "taken at five points on every transect.",
+    ],
+    [
+        "Results",
+        "The marsh edge retreated by 1.8 metres per year on average. Retreat was fastest "
+        "on the exposed western shore, where waves reach the bank at high tide. Carbon "
+        "density did not differ between eroding and stable sites.",
+    ],
+    [
+        "Discussion",
+        "Edge retreat at this rate would remove a tenth of the marsh within three decades. "
+        "Planting along the western shore could slow the loss where it is worst.",
+    ],
+]
+
+REFERENCES = [
+    "[1] Hale R, Moss T. Salt marsh carbon budgets revisited. Estuar Sci. 2015;4:1-9. doi:10.5555/esci.2015.001",
+    "[2] Ibarra L. Wave exposure and bank erosion. Coast Res Lett. 2017;9:33-40.",
+]
+
+
+@pytest.fixture(scope="session")
+def article(tmp_path_factory: pytest.TempPathFactory) -> Path:
+    """A four-page invented article with running lines, a DOI and a reference list."""
+    path = tmp_path_factory.mktemp("sources") / "article.pdf"
+    return paper_pdf(
+        path,
+        title="Marsh edge retreat in a northern estuary",
+        authors="Nadia Ferreira, Tomas Lindqvist",
+        year=2019,
+        doi="10.5555/NEST.2019.042",
+        body=PAGE_TEXTS,
+        references=REFERENCES,
+        header="Journal of Invented Coasts 7 (2019) {n}",
+        footer="Page {n} of {nb}",
+        metadata_title="Marsh edge retreat in a northern estuary",
+        metadata_author="Ferreira, N.; Lindqvist, T.",
+    )
