@@ -75,8 +75,14 @@ class Encoder:
             os.environ["HF_HUB_OFFLINE"] = "1"
             os.environ["TRANSFORMERS_OFFLINE"] = "1"
             os.environ.setdefault("TOKENIZERS_PARALLELISM", "false")
+            os.environ["HF_HUB_DISABLE_PROGRESS_BARS"] = "1"
             try:
+                import transformers
                 from sentence_transformers import SentenceTransformer
+
+                # The loaders' own progress bars and notices would break our one-line contract.
+                transformers.utils.logging.disable_progress_bar()
+                transformers.utils.logging.set_verbosity_error()
 
                 self._model = SentenceTransformer(str(self.path), device="cpu")
             except Exception as exc:  # any loader failure is one line for the user

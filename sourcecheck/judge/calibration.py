@@ -18,13 +18,15 @@ from sourcecheck.judge.features import FEATURE_NAMES, Features
 
 @dataclass(frozen=True)
 class Calibration:
-    """Logistic weights over FEATURE_NAMES plus the two band thresholds on the score."""
+    """Logistic weights over FEATURE_NAMES, the two band thresholds on the score, and the
+    retrieval fusion weight the features were fitted with (the index must use the same)."""
 
     weights: tuple[float, ...]
     bias: float
     anchored_at: float
     adrift_below: float
     provenance: str
+    dense_weight: float = 0.7
 
     def score(self, features: Features) -> float:
         """Probability in [0, 1] that the passage backs the claim."""
@@ -45,4 +47,5 @@ def load_calibration(text: str | None = None) -> Calibration:
         anchored_at=float(data["thresholds"]["anchored_at"]),
         adrift_below=float(data["thresholds"]["adrift_below"]),
         provenance=str(data.get("made_by", "")),
+        dense_weight=float(data.get("dense_weight", 0.7)),
     )

@@ -80,6 +80,19 @@ def _first_page_text(paragraphs: list[str]) -> str:
     return text[: cut if cut > 0 else FIRST_PAGE_CHARS]
 
 
+def _with_running_lines(text: str, lines: list[list[str]], body: list[list[str]]) -> str:
+    """Page 1's text plus the running lines cut from it.
+
+    A running header often holds the journal, year and authors ("Field Notes 9, 2018
+    Feltham & Wyncombe"): no evidence, but exactly what ties a reference to the file.
+    """
+    if not lines or not body:
+        return text
+    kept = set(body[0])
+    cut = [line for line in lines[0] if line not in kept and line.strip()]
+    return "\n".join([text, *cut]) if cut else text
+
+
 def read_source(path: Path, display: str, sha256: str | None = None, max_words: int = 90) -> Source | Problem:
     """Read one source PDF; any failure is a :class:`Problem` naming ``display``.
 
@@ -123,7 +136,7 @@ def _build(raw: RawPdf, texts: list[str], display: str, sha256: str, max_words: 
         pages=len(texts),
         title=title,
         doi=doi,
-        first_page_text=_first_page_text(paragraphs[0]) if paragraphs else "",
+        first_page_text=_with_running_lines(_first_page_text(paragraphs[0]) if paragraphs else "", lines, body),
         passages=make_passages(display, paragraphs, max_words),
         author=author,
     )

@@ -1,0 +1,297 @@
+"""Runs the stages in order: the one module that knows all of them.
+
+draft -> claims -> sources -> index -> judgment -> report. Every stage hands the next
+only the dataclasses of :mod:`sourcecheck.model`; bad input inside a file becomes a
+:class:`~sourcecheck.model.Problem` and the run goes on.
+"""
+
+from __future__ import annotations
+
+import re
+from collections.abc import Callable
+from dataclasses import dataclass
+from pathlib import Path
+
+import numpy as np
+
+from sourcecheck.drafts import read_draft
+from sourcecheck.errors import SourcesUnreadable
+from sourcecheck.index.cache import Cache, default_cache_dir, text_key
+from sourcecheck.index.dense import Encoder, resolve_model_path
+from sourcecheck.index.search import EvidenceIndex
+from sourcecheck.judge.calibration import Calibration, load_calibration
+from sourcecheck.judge.verdict import better_source_reason, judge, unverifiable
+from sourcecheck.model import (
+    Check,
+    Claim,
+    ClaimResult,
+    Draft,
+    ModelInfo,
+    Passage,
+    Problem,
+    Reason,
+    Reference,
+    Report,
+    Source,
+    SourceMatch,
+)
+from sourcecheck.sources import (
+    EXTRACTOR_VERSION,
+    discover_pdfs,
+    file_sha256,
+    load_mapping,
+    match_references,
+    read_source,
+)
+
+#: Called as ``progress(stage, done, total)`` while sources are read and embedded.
+ProgressHook = Callable[[str, int, int], None]
+
+EVIDENCE_SEARCHED = 3
+
+
+@dataclass
+class RunStats:
+    """What a run cost: benchmarks and tests read it to prove the cache works."""
+
+    sources_read: int = 0
+    sources_from_cache: int = 0
+    passages_embedded: int = 0
+    claims_embedded: int = 0
+    model_loaded: bool = False
+
+
+def _noop(stage: str, done: int, total: int) -> None:
+    return None
+
+
+def _display(root_arg: Path, pdf: Path, root: Path) -> str:
+    return str(root_arg / pdf.relative_to(root))
+
+
+def read_sources(
+    folder: Path, cache: Cache, progress: ProgressHook, stats: RunStats
+) -> tuple[list[Source], list[Problem]]:
+    """Every readable PDF under ``folder``, from the cache where its content is known."""
+    if not folder.is_dir():
+        raise SourcesUnreadable(
+            f"{folder}: sources folder not found" if not folder.exists() else f"{folder}: not a folder"
+        )
+    pdfs = discover_pdfs(folder)
+    sources: list[Source] = []
+    problems: list[Problem] = []
+    for done, pdf in enumerate(pdfs, start=1):
+        display = _display(folder, pdf, folder)
+        try:
+            sha = file_sha256(pdf)
+        except OSError as exc:
+            problems.append(Problem(display, f"cannot be read ({exc.strerror or exc})"))
+            continue
+        cached = cache.load_source(sha, EXTRACTOR_VERSION, display)
+        if cached is not None:
+            sources.append(cached)
+            stats.sources_from_cache += 1
+        else:
+            result = read_source(pdf, display, sha256=sha)
+            if isinstance(result, Problem):
+                problems.append(result)
+            else:
+                sources.append(result)
+                cache.save_source(result, EXTRACTOR_VERSION)
+                stats.sources_read += 1
+        progress("read", done, len(pdfs))
+    return sources, problems
+
+
+def embed_sources(
+    sources: list[Source], encoder: Encoder, cache: Cache, progress: ProgressHook, stats: RunStats
+) -> np.ndarray:
+    """One unit vector per passage, in source order; each source embedded once, ever."""
+    blocks = []
+    total = sum(len(s.passages) for s in sources)
+    done = 0
+    for source in sources:
+        key = f"{source.sha256}-{EXTRACTOR_VERSION}-{encoder.fingerprint}"
+        texts = [p.text for p in source.passages]
+        vectors = cache.load_vectors("passages", key, len(texts))
+        if vectors is None:
+            vectors = encoder.encode(texts) if texts else np.zeros((0, 384), dtype=np.float32)
+            cache.save_vectors("passages", key, vectors)
+            stats.passages_embedded += len(texts)
+        blocks.append(vectors)
+        done += len(texts)
+        progress("embed", done, total)
+    nonempty = [b for b in blocks if b.size]
+    return np.vstack(nonempty) if nonempty else np.zeros((0, 1), dtype=np.float32)
+
+
+def claim_query(claim: Claim) -> str:
+    """The claim sentence without its citation markers: what is searched and judged."""
+    text = claim.text
+    for marker in {c.marker for c in claim.citations}:
+        text = text.replace(marker, " ")
+    return re.sub(r"\s+([.,;:])", r"\1", re.sub(r"\s{2,}", " ", text)).strip()
+
+
+def embed_claims(queries: list[str], encoder: Encoder, cache: Cache, stats: RunStats) -> np.ndarray:
+    """Claim vectors, cached for the draft as a whole so a warm run embeds nothing."""
+    if not queries:
+        return np.zeros((0, 1), dtype=np.float32)
+    key = text_key(encoder.fingerprint, *queries)
+    vectors = cache.load_vectors("claims", key, len(queries))
+    if vectors is None:
+        vectors = encoder.encode(queries)
+        cache.save_vectors("claims", key, vectors)
+        stats.claims_embedded += len(queries)
+    return vectors
+
+
+def _check_citation(
+    claim_text: str,
+    vector: np.ndarray,
+    citation_index: int,
+    claim: Claim,
+    references: dict[str, Reference],
+    matches: dict[str, SourceMatch],
+    index: EvidenceIndex,
+    calibration: Calibration,
+) -> Check:
+    citation = claim.citations[citation_index]
+    if citation.key is None or citation.key not in references:
+        return unverifiable(
+            citation,
+            None,
+            None,
+            Reason("marker-unresolved", f"{citation.label} has no entry in the reference list"),
+        )
+    reference = references[citation.key]
+    match = matches.get(reference.key)
+    if match is None:
+        return unverifiable(
+            citation,
+            reference,
+            None,
+            Reason(
+                "source-missing",
+                f"no readable PDF in the sources folder matches reference {citation.label}",
+            ),
+        )
+    weight = calibration.dense_weight
+    hits = index.search(claim_text, vector, source=match.source, k=EVIDENCE_SEARCHED, dense_weight=weight)
+    check = judge(claim_text, citation, reference, match.source, hits, calibration)
+    alternatives = [
+        h for h in index.search(claim_text, vector, k=8, dense_weight=weight) if h.passage.source != match.source
+    ]
+    if alternatives:
+        reason = better_source_reason(check, alternatives[0], claim_text, calibration)
+        if reason is not None:
+            check.reasons.append(reason)
+    return check
+
+
+def unused_sources(sources: list[Source], draft: Draft, matches: dict[str, SourceMatch]) -> list[str]:
+    """Readable source files that no citation in the text leads to."""
+    cited = {c.key for claim in draft.claims for c in claim.citations if c.key}
+    used = {m.source for key, m in matches.items() if key in cited}
+    return [s.path for s in sources if s.path not in used]
+
+
+@dataclass
+class Prepared:
+    """Everything the judge needs, before any claim is judged.
+
+    Split from :func:`run` so the calibration script reads the very same features the
+    judge reads, from the very same index.
+    """
+
+    draft: Draft
+    sources: list[Source]
+    index: EvidenceIndex
+    matches: dict[str, SourceMatch]
+    queries: list[str]
+    claim_vectors: np.ndarray
+    encoder: Encoder
+    problems: list[Problem]
+    cache: Cache
+
+
+def prepare(
+    draft_path: Path,
+    sources_dir: Path,
+    *,
+    mapping: Path | None = None,
+    model: str | None = None,
+    cache_dir: Path | None = None,
+    progress: ProgressHook = _noop,
+    stats: RunStats | None = None,
+) -> Prepared:
+    """Read the draft and the sources, build the index, match references, embed claims."""
+    stats = stats if stats is not None else RunStats()
+    model_path = resolve_model_path(model)
+    mapping_table = load_mapping(mapping) if mapping is not None else None
+    draft = read_draft(draft_path, display=str(draft_path))
+    cache = Cache(cache_dir if cache_dir is not None else default_cache_dir())
+    encoder = Encoder(model_path)
+
+    sources, source_problems = read_sources(sources_dir, cache, progress, stats)
+    vectors = embed_sources(sources, encoder, cache, progress, stats)
+    passages: list[Passage] = [p for s in sources for p in s.passages]
+    index = EvidenceIndex(passages, vectors)
+    matches, match_problems = match_references(draft.references, sources, mapping_table, sources_root=str(sources_dir))
+    queries = [claim_query(c) for c in draft.claims]
+    claim_vectors = embed_claims(queries, encoder, cache, stats)
+    stats.model_loaded = encoder.loaded
+    return Prepared(
+        draft=draft,
+        sources=sources,
+        index=index,
+        matches=matches,
+        queries=queries,
+        claim_vectors=claim_vectors,
+        encoder=encoder,
+        problems=[*draft.problems, *source_problems, *match_problems],
+        cache=cache,
+    )
+
+
+def run(
+    draft_path: Path,
+    sources_dir: Path,
+    *,
+    mapping: Path | None = None,
+    model: str | None = None,
+    cache_dir: Path | None = None,
+    progress: ProgressHook = _noop,
+    stats: RunStats | None = None,
+) -> Report:
+    """Check every cited claim of ``draft_path`` against the PDFs under ``sources_dir``."""
+    prepared = prepare(
+        draft_path,
+        sources_dir,
+        mapping=mapping,
+        model=model,
+        cache_dir=cache_dir,
+        progress=progress,
+        stats=stats,
+    )
+    calibration = load_calibration()
+    draft = prepared.draft
+    references = {r.key: r for r in draft.references}
+    results = []
+    for claim, query, vector in zip(draft.claims, prepared.queries, prepared.claim_vectors, strict=False):
+        checks = [
+            _check_citation(query, vector, i, claim, references, prepared.matches, prepared.index, calibration)
+            for i in range(len(claim.citations))
+        ]
+        results.append(ClaimResult(claim=claim, checks=checks))
+    cache_problems = [Problem(str(prepared.cache.root), w) for w in prepared.cache.warnings]
+    return Report(
+        draft=str(draft_path),
+        sources=str(sources_dir),
+        model=ModelInfo(name=prepared.encoder.name, path=str(prepared.encoder.path)),
+        claims=results,
+        references=draft.references,
+        matches=prepared.matches,
+        unused_sources=unused_sources(prepared.sources, draft, prepared.matches),
+        problems=[*prepared.problems, *cache_problems],
+    )
