@@ -91,7 +91,7 @@ def _run_check(args: argparse.Namespace) -> int:
             progress=progress,
         )
     for problem in report.problems:
-        errors.print(f"sourcecheck: {problem.file}: {problem.message}", markup=False, highlight=False)
+        print(f"sourcecheck: {problem.file}: {problem.message}", file=sys.stderr)  # one line, never wrapped
     if args.format == "json":
         text = json_report.dumps(report)
     else:

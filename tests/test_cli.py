@@ -1,0 +1,166 @@
+"""The command line: exit codes, report formats, one-line errors and bad input end to end."""
+
+from __future__ import annotations
+
+import json
+import shutil
+from pathlib import Path
+
+import pytest
+
+from sourcecheck.cli import EXIT_INPUT, EXIT_OK, main
+from tests.pdf_fixtures import encrypted_pdf, image_only_pdf, write_not_a_pdf, write_truncated_pdf
+
+ROOT = Path(__file__).resolve().parent.parent
+DRAFT = ROOT / "sample_manuscript" / "draft.md"
+SOURCES = ROOT / "sample_sources"
+
+
+@pytest.fixture(scope="module")
+def cache(tmp_path_factory: pytest.TempPathFactory) -> Path:
+    """A cache warmed once on the demo, so each CLI test below runs without the model."""
+    folder = tmp_path_factory.mktemp("cli-cache")
+    assert main(["check", str(DRAFT), "--sources", str(SOURCES), "--cache", str(folder), "--quiet"]) == EXIT_OK
+    return folder
+
+
+def _run(capsys: pytest.CaptureFixture[str], *args: str) -> tuple[int, str, str]:
+    code = main(list(args))
+    out, err = capsys.readouterr()
+    return code, out, err
+
+
+def test_json_report_to_stdout_follows_the_contract(cache: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    code, out, _ = _run(
+        capsys, "check", str(DRAFT), "--sources", str(SOURCES), "--cache", str(cache), "--format", "json"
+    )
+    assert code == EXIT_OK
+    data = json.loads(out)
+    assert data["schema"] == "sourcecheck.report/1"
+    assert {c["band"] for claim in data["claims"] for c in claim["checks"]} == {
+        "anchored",
+        "loose",
+        "conflict",
+        "adrift",
+        "unverifiable",
+    }
+
+
+def test_output_file_holds_the_report_and_nothing_goes_to_stdout(
+    cache: Path, tmp_path: Path, capsys: pytest.CaptureFixture[str]
+) -> None:
+    target = tmp_path / "out" / "report.json"
+    code, out, _ = _run(
+        capsys,
+        "check",
+        str(DRAFT),
+        "--sources",
+        str(SOURCES),
+        "--cache",
+        str(cache),
+        "--format",
+        "json",
+        "--output",
+        str(target),
+    )
+    assert code == EXIT_OK and out == ""
+    assert json.loads(target.read_text(encoding="utf-8"))["draft"] == str(DRAFT)
+    assert [p.name for p in target.parent.iterdir()] == ["report.json"]  # no temporary file left
+
+
+def test_text_report_shows_summary_and_caution(cache: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    code, out, _ = _run(capsys, "check", str(DRAFT), "--sources", str(SOURCES), "--cache", str(cache))
+    flat = " ".join(out.split())
+    assert code == EXIT_OK
+    assert "16 checks: 10 anchored, 1 loose, 1 conflict, 2 adrift, 2 unverifiable" in flat
+    assert "does not prove error or misconduct" in flat
+
+
+@pytest.mark.parametrize(
+    ("args", "needle"),
+    [
+        (["check", "missing.md", "--sources", str(SOURCES)], "missing.md: no such file"),
+        (["check", str(DRAFT), "--sources", "no-such-folder"], "no-such-folder: sources folder not found"),
+        (["check", str(DRAFT), "--sources", str(SOURCES), "--model", "no-model-here"], "model folder not found"),
+        (["check", str(DRAFT), "--sources", str(SOURCES), "--map", "nomap.csv"], "nomap.csv"),
+    ],
+)
+def test_input_errors_exit_2_with_one_line(
+    cache: Path, capsys: pytest.CaptureFixture[str], args: list[str], needle: str
+) -> None:
+    code, out, err = _run(capsys, *args, "--cache", str(cache))
+    assert code == EXIT_INPUT
+    assert out == ""
+    assert needle in err and len(err.strip().splitlines()) == 1
+    assert "Traceback" not in err
+
+
+def test_usage_error_exits_2(capsys: pytest.CaptureFixture[str]) -> None:
+    with pytest.raises(SystemExit) as exit_info:
+        main(["check"])
+    assert exit_info.value.code == 2  # argparse's usage-error code, as for every command-line tool
+
+
+def test_bad_source_files_are_one_line_each_and_the_run_goes_on(
+    cache: Path, tmp_path: Path, capsys: pytest.CaptureFixture[str]
+) -> None:
+    folder = tmp_path / "sources"
+    shutil.copytree(SOURCES, folder)
+    write_not_a_pdf(folder / "notes.pdf")
+    (folder / "empty.pdf").write_bytes(b"")
+    write_truncated_pdf(folder / "cut.pdf", SOURCES / "moss-recovery-after-burning.pdf")
+    encrypted_pdf(folder / "locked.pdf", ["Locked text about heath."])
+    image_only_pdf(folder / "scan.pdf")
+    code, out, err = _run(
+        capsys, "check", str(DRAFT), "--sources", str(folder), "--cache", str(cache), "--format", "json"
+    )
+    assert code == EXIT_OK
+    data = json.loads(out)
+    problems = {Path(p["file"]).name: p["message"] for p in data["problems"]}
+    assert problems["notes.pdf"].startswith("not a PDF")
+    assert "empty" in problems["empty.pdf"]
+    assert "truncated" in problems["cut.pdf"] or "corrupt" in problems["cut.pdf"]
+    assert "encrypted" in problems["locked.pdf"]
+    assert "no text layer" in problems["scan.pdf"]
+    for name in problems:
+        assert name in err  # also one line each on standard error
+    assert "Traceback" not in err
+    assert sum(len(c["checks"]) for c in data["claims"]) == 16  # every other check still made
+
+
+def test_draft_in_windows_1252_is_read_with_a_problem(
+    cache: Path, tmp_path: Path, capsys: pytest.CaptureFixture[str]
+) -> None:
+    draft = tmp_path / "draft-cp1252.md"
+    draft.write_bytes(DRAFT.read_text(encoding="utf-8").encode("cp1252", errors="replace"))
+    code, out, err = _run(
+        capsys, "check", str(draft), "--sources", str(SOURCES), "--cache", str(cache), "--format", "json"
+    )
+    data = json.loads(out)
+    assert code == EXIT_OK
+    assert any("not valid UTF-8" in p["message"] for p in data["problems"])
+    assert "draft-cp1252.md: not valid UTF-8" in err
+    assert len(data["claims"]) == 14
+
+
+@pytest.mark.parametrize(
+    ("text", "needle"),
+    [
+        (
+            '# Notes\n\nNothing is cited here.\n\n## References\n\n[1] A. Writer, "A title," 2020.\n',
+            "no citation markers",
+        ),
+        ("# Notes\n\nHeron nests rose [1].\n", "no reference list"),
+    ],
+)
+def test_draft_without_citations_or_references_is_reported(
+    cache: Path, tmp_path: Path, capsys: pytest.CaptureFixture[str], text: str, needle: str
+) -> None:
+    draft = tmp_path / "draft.md"
+    draft.write_text(text, encoding="utf-8")
+    code, out, err = _run(
+        capsys, "check", str(draft), "--sources", str(SOURCES), "--cache", str(cache), "--format", "json"
+    )
+    assert code == EXIT_OK
+    assert needle in err and "Traceback" not in err
+    assert any(needle in p["message"] for p in json.loads(out)["problems"])

@@ -1,0 +1,158 @@
+"""End to end on the bundled demo: every planted case gets its planted band and reason.
+
+The expectations are read from sample_manuscript/PLANTED.md, the table written when the
+demo was planted, so the document and the test cannot drift apart.
+"""
+
+from __future__ import annotations
+
+import re
+import socket
+from pathlib import Path
+
+import pytest
+
+from sourcecheck.model import Band, Report
+from sourcecheck.pipeline import RunStats, run
+
+ROOT = Path(__file__).resolve().parent.parent
+DRAFT = ROOT / "sample_manuscript" / "draft.md"
+SOURCES = ROOT / "sample_sources"
+
+
+def planted_rows() -> list[dict[str, str]]:
+    """The rows of the checks table in PLANTED.md."""
+    rows = []
+    for line in (ROOT / "sample_manuscript" / "PLANTED.md").read_text(encoding="utf-8").splitlines():
+        cells = [c.strip() for c in line.strip().strip("|").split("|")]
+        if len(cells) >= 9 and cells[0].isdigit():
+            rows.append(
+                {
+                    "snippet": cells[1].strip("`"),
+                    "citation": cells[3],
+                    "band": cells[4],
+                    "reason": cells[5],
+                    "file": cells[6],
+                }
+            )
+    return rows
+
+
+class _NetworkGuard:
+    """Replaces every way of opening a connection with one that records and refuses."""
+
+    def __init__(self, monkeypatch: pytest.MonkeyPatch) -> None:
+        self.attempts: list[str] = []
+
+        def refuse(*args: object, **kwargs: object) -> None:
+            self.attempts.append(repr(args)[:80])
+            raise OSError("network use is forbidden in sourcecheck")
+
+        monkeypatch.setattr(socket.socket, "connect", refuse)
+        monkeypatch.setattr(socket.socket, "connect_ex", refuse)
+        monkeypatch.setattr(socket, "create_connection", refuse)
+        monkeypatch.setattr(socket, "getaddrinfo", refuse)
+
+
+@pytest.fixture(scope="module")
+def demo_cache(tmp_path_factory: pytest.TempPathFactory) -> Path:
+    return tmp_path_factory.mktemp("cache")
+
+
+@pytest.fixture(scope="module")
+def cold(demo_cache: Path) -> tuple[Report, RunStats, list[str]]:
+    """The demo, cold cache, with all network access refused and recorded."""
+    with pytest.MonkeyPatch.context() as patch:
+        guard = _NetworkGuard(patch)
+        stats = RunStats()
+        report = run(DRAFT, SOURCES, cache_dir=demo_cache, stats=stats)
+    return report, stats, guard.attempts
+
+
+def _check_for(report: Report, snippet: str, citation: str):
+    for result in report.claims:
+        if snippet in result.claim.text:
+            for check in result.checks:
+                if check.citation.label == citation:
+                    return check
+    raise AssertionError(f"no check {citation} for a claim containing {snippet!r}")
+
+
+def test_the_whole_run_opens_no_network_connection(cold) -> None:
+    # DESIGN.md, "Confidentiality": sourcecheck opens no network connection, ever.
+    report, stats, attempts = cold
+    assert attempts == []
+    assert stats.model_loaded and stats.passages_embedded > 0  # the model really ran under the guard
+    assert report.claims
+
+
+@pytest.mark.parametrize("row", planted_rows(), ids=lambda r: f"{r['citation']}-{r['snippet'][:30]}")
+def test_each_planted_case_gets_its_band_and_reason(cold, row: dict[str, str]) -> None:
+    report = cold[0]
+    check = _check_for(report, row["snippet"], row["citation"])
+    assert check.band is Band(row["band"]), [r.message for r in check.reasons]
+    if row["reason"] != "-":
+        assert row["reason"] in [r.code for r in check.reasons]
+    if row["band"] in ("anchored", "conflict", "loose") and not row["file"].startswith("-"):
+        assert check.source is not None and check.source.endswith(row["file"])
+
+
+def test_planted_table_covers_every_band_and_every_check(cold) -> None:
+    report = cold[0]
+    rows = planted_rows()
+    assert {r["band"] for r in rows} == {b.value for b in Band}
+    assert sum(len(r.checks) for r in report.claims) == len(rows)
+
+
+def test_changed_number_reason_quotes_both_values(cold) -> None:
+    check = _check_for(cold[0], "only 23% of nest entrances", "[1]")
+    message = next(r.message for r in check.reasons if r.code == "number-mismatch")
+    assert "23%" in message and "18%" in message and "p. 2" in message
+
+
+def test_wrong_source_names_the_better_one(cold) -> None:
+    check = _check_for(cold[0], "Males emerged on average 6 days", "[6]")
+    reason = next(r for r in check.reasons if r.code == "better-source")
+    assert "emergence_soil_temperature.pdf" in reason.message and "p. 2" in reason.message
+
+
+def test_loose_ends_are_reported(cold) -> None:
+    report = cold[0]
+    assert [Path(p).name for p in report.unused_sources] == ["moss-recovery-after-burning.pdf"]
+    assert [r.key for r in report.uncited_references()] == ["8"]
+    assert [r.key for r in report.unmatched_references()] == ["7"]
+    assert report.problems == []
+
+
+def test_evidence_is_short_and_paged(cold) -> None:
+    for result in cold[0].claims:
+        for check in result.checks:
+            for evidence in check.evidence:
+                # DESIGN.md: an evidence passage is at most about 100 words.
+                assert len(evidence.text.split()) <= 100
+                assert evidence.page >= 1
+            assert check.reasons, "every check says why"
+
+
+def test_warm_run_embeds_nothing_and_loads_no_model(cold, demo_cache: Path) -> None:
+    stats = RunStats()
+    warm = run(DRAFT, SOURCES, cache_dir=demo_cache, stats=stats)
+    assert stats.passages_embedded == 0 and stats.claims_embedded == 0
+    assert stats.sources_read == 0 and stats.sources_from_cache == 7
+    assert not stats.model_loaded
+    bands = [(c.citation.label, c.band) for r in warm.claims for c in r.checks]
+    assert bands == [(c.citation.label, c.band) for r in cold[0].claims for c in r.checks]
+
+
+def test_corrupt_cache_entry_is_rebuilt_with_a_warning(cold, demo_cache: Path, tmp_path: Path) -> None:
+    import shutil
+
+    cache = tmp_path / "cache"
+    shutil.copytree(demo_cache, cache)
+    victim = sorted((cache / "passages").glob("*.npy"))[0]
+    victim.write_bytes(b"not an array")
+    stats = RunStats()
+    report = run(DRAFT, SOURCES, cache_dir=cache, stats=stats)
+    assert stats.passages_embedded > 0
+    assert any("rebuilt" in p.message for p in report.problems)
+    assert re.search(r"\.npy", " ".join(p.message for p in report.problems))
