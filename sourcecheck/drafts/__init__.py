@@ -8,40 +8,77 @@ reference and claim modules, so a new format only has to cut its text into block
 from __future__ import annotations
 
 from collections.abc import Callable
+from dataclasses import dataclass
 from pathlib import Path
 
 from sourcecheck.drafts.markdown import read_markdown
 from sourcecheck.drafts.textfile import decode, read_bytes
+from sourcecheck.errors import DraftUnreadable
 from sourcecheck.model import Draft, Problem
 
-__all__ = ["READERS", "read_draft"]
+__all__ = ["FORMATS", "READERS", "ReadOptions", "read_draft"]
 
-# Suffix -> reader of decoded text. Later formats (LaTeX, Word, PDF) register here.
-READERS: dict[str, Callable[[str, str], Draft]] = {
-    ".md": read_markdown,
-    ".markdown": read_markdown,
-    ".mdown": read_markdown,
-    ".mkd": read_markdown,
-    ".txt": read_markdown,
-    ".text": read_markdown,
+
+@dataclass(frozen=True)
+class ReadOptions:
+    """What the user told us about the draft beyond its path.
+
+    ``bibliography`` is ``--bib`` (a .bib, .bbl, CSL-JSON or RIS file); ``format`` is
+    ``--format-in``, which overrides the guess from the file's suffix.
+    """
+
+    bibliography: Path | None = None
+    format: str | None = None
+
+
+#: A reader gets the draft's path, its display name and the options, and returns a Draft.
+Reader = Callable[[Path, str, ReadOptions], Draft]
+
+
+def _read_markdown_file(path: Path, display: str, options: ReadOptions) -> Draft:
+    text, problems = decode(read_bytes(path, display), display)
+    draft = read_markdown(text, display)
+    draft.problems[:0] = problems
+    return draft
+
+
+# Format name -> reader. Later formats (LaTeX, Word, PDF) register here.
+READERS: dict[str, Reader] = {"markdown": _read_markdown_file}
+
+# File suffix -> format name.
+FORMATS: dict[str, str] = {
+    ".md": "markdown",
+    ".markdown": "markdown",
+    ".mdown": "markdown",
+    ".mkd": "markdown",
+    ".txt": "markdown",
+    ".text": "markdown",
 }
 
 
-def read_draft(path: Path, display: str | None = None) -> Draft:
+def read_draft(path: Path, display: str | None = None, options: ReadOptions | None = None) -> Draft:
     """Read the draft at ``path``; ``display`` is how reports name the file.
 
-    Raises DraftUnreadable only when the file is missing, a folder or cannot be opened.
-    Anything wrong inside the file comes back in ``Draft.problems``.
+    Raises DraftUnreadable only when the file is missing, a folder or cannot be opened
+    (or ``--format-in`` names no known format). Anything wrong inside the file comes
+    back in ``Draft.problems``.
     """
+    options = options or ReadOptions()
     name = display or str(path)
-    data = read_bytes(Path(path), name)
-    text, problems = decode(data, name)
-    suffix = Path(path).suffix.lower()
-    reader = READERS.get(suffix)
-    if reader is None:
-        reader = read_markdown
-        what = f"'{suffix}'" if suffix else "without a suffix"
-        problems.append(Problem(name, f"draft format {what} is not known; read as plain text"))
-    draft = reader(text, name)
-    draft.problems[:0] = problems
+    path = Path(path)
+    read_bytes(path, name)  # fail early, and the same way for every format, on a missing file
+    notes: list[Problem] = []
+    if options.format is not None:
+        if options.format not in READERS:
+            known = ", ".join(sorted(READERS))
+            raise DraftUnreadable(f"{name}: --format-in {options.format!r} is not one of {known}")
+        reader = READERS[options.format]
+    else:
+        suffix = path.suffix.lower()
+        reader = READERS.get(FORMATS.get(suffix, ""), _read_markdown_file)
+        if suffix not in FORMATS:
+            what = f"'{suffix}'" if suffix else "without a suffix"
+            notes.append(Problem(name, f"draft format {what} is not known; read as plain text"))
+    draft = reader(path, name, options)
+    draft.problems.extend(notes)
     return draft
