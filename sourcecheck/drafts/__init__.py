@@ -13,6 +13,7 @@ from pathlib import Path
 
 from sourcecheck.drafts.markdown import read_markdown
 from sourcecheck.drafts.textfile import decode, read_bytes
+from sourcecheck.drafts.word import read_word
 from sourcecheck.errors import DraftUnreadable
 from sourcecheck.model import Draft, Problem
 
@@ -43,7 +44,7 @@ def _read_markdown_file(path: Path, display: str, options: ReadOptions) -> Draft
 
 
 # Format name -> reader. Later formats (LaTeX, Word, PDF) register here.
-READERS: dict[str, Reader] = {"markdown": _read_markdown_file}
+READERS: dict[str, Reader] = {"markdown": _read_markdown_file, "word": read_word}
 
 # File suffix -> format name.
 FORMATS: dict[str, str] = {
@@ -53,6 +54,7 @@ FORMATS: dict[str, str] = {
     ".mkd": "markdown",
     ".txt": "markdown",
     ".text": "markdown",
+    ".docx": "word",
 }
 
 
