@@ -69,6 +69,7 @@ class Claim:
     text: str
     line: int
     citations: tuple[Citation, ...]
+    file: str | None = None  # the file the sentence is in, when not the draft itself (LaTeX \input)
 
 
 @dataclass

@@ -179,8 +179,10 @@ def _check_citation(
     weight = calibration.dense_weight
     hits = index.search(claim_text, vector, source=match.source, k=EVIDENCE_SEARCHED, dense_weight=weight)
     check = judge(claim_text, citation, reference, match.source, hits, calibration)
+    # Another work this claim already cites is no "better source": the author cited both.
+    cited_here = {matches[c.key].source for c in claim.citations if c.key in matches}
     alternatives = [
-        h for h in index.search(claim_text, vector, k=8, dense_weight=weight) if h.passage.source != match.source
+        h for h in index.search(claim_text, vector, k=8, dense_weight=weight) if h.passage.source not in cited_here
     ]
     if alternatives:
         reason = better_source_reason(check, alternatives[0], claim_text, calibration)

@@ -1,8 +1,8 @@
 """Numbers in a claim that the cited passage does not bear out.
 
-A claim's number is *found* when the evidence holds the same value of the same kind,
-allowing for the rounding its written precision implies ("18%" matches a source's
-"18.4%"; common practice, no source). A number that is not found is *different* when the
+A claim's number is *found* when the evidence holds the same value (a percentage only as
+a percentage), allowing for the rounding its written precision implies ("18%" matches a
+source's "18.4%"; common practice, no source). A number that is not found is *different* when the
 best passage holds another value of the same kind about the same thing, and *absent*
 otherwise. The kind is a percentage, a year, or the word that follows the number
 ("412 nests"), so "23%" is never compared with "23 sites".
@@ -139,6 +139,15 @@ def same_value(a: Quantity, b: Quantity) -> bool:
     return abs(a.value - b.value) <= tolerance + 1e-9
 
 
+def _same_family(a: Quantity, b: Quantity) -> bool:
+    """Whether two values may be the same figure: both percentages, or neither.
+
+    The word after a number is too narrow a test for *finding* it ("1119 adult bees" and
+    "1119 bees" are one figure); it is kept for choosing a *counterpart* value.
+    """
+    return (a.kind == "%") == (b.kind == "%")
+
+
 @dataclass(frozen=True)
 class NumberFinding:
     """What became of one claim quantity in the evidence."""
@@ -158,7 +167,7 @@ def unsupported_numbers(claim: str, best: str, others: list[str]) -> list[Number
     best_quantities = quantities(best)
     findings = []
     for wanted in quantities(claim):
-        if any(q.kind == wanted.kind and same_value(q, wanted) for q in evidence):
+        if any(_same_family(q, wanted) and same_value(q, wanted) for q in evidence):
             continue
         rivals = [q for q in best_quantities if q.kind == wanted.kind and wanted.kind]
         counterpart = max(rivals, key=lambda q: len(q.context & wanted.context), default=None)

@@ -53,7 +53,7 @@ def to_dict(report: Report) -> dict[str, Any]:
             {
                 "id": result.claim.id,
                 "text": result.claim.text,
-                "location": {"line": result.claim.line},
+                "location": {"line": result.claim.line, **({"file": result.claim.file} if result.claim.file else {})},
                 "checks": [_check(c) for c in result.checks],
             }
             for result in report.claims

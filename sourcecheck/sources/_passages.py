@@ -45,6 +45,11 @@ def _split_long(sentence: str, max_words: int) -> list[str]:
     return [" ".join(words[i : i + size]) for i in range(0, len(words), size)]
 
 
+def ends_sentence(text: str) -> bool:
+    """Whether ``text`` ends as a sentence does (closing punctuation, maybe a quote or bracket)."""
+    return bool(_CLOSES.search(text.rstrip()))
+
+
 def is_fragment(paragraph: str) -> bool:
     """A heading-like scrap: very few words and no closing punctuation."""
     return len(paragraph.split()) <= FRAGMENT_WORDS and not _CLOSES.search(paragraph)

@@ -46,3 +46,9 @@ def test_changed_number_has_a_counterpart_and_missing_number_has_none() -> None:
 def test_a_number_found_in_a_second_passage_is_supported() -> None:
     found = unsupported_numbers("412 nests were counted.", "Nests were counted in May.", ["In all, 412 nests."])
     assert found == []
+
+
+def test_a_number_is_found_whatever_word_follows_it() -> None:
+    # "1,119 adult bees" and "1119 bees" are one figure; a percentage is only ever a percentage.
+    assert unsupported_numbers("We marked 1,119 adult bees.", "In all 1119 bees were marked.", []) == []
+    assert unsupported_numbers("We marked 23% of bees.", "We marked 23 bees.", []) != []
