@@ -38,7 +38,7 @@ Reader = Callable[[Path, str, ReadOptions], Draft]
 
 def _read_markdown_file(path: Path, display: str, options: ReadOptions) -> Draft:
     text, problems = decode(read_bytes(path, display), display)
-    draft = read_markdown(text, display)
+    draft = read_markdown(text, display, options=options, base_dir=path.parent)
     draft.problems[:0] = problems
     return draft
 

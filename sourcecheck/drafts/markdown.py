@@ -10,8 +10,11 @@ from __future__ import annotations
 
 import re
 from collections.abc import Iterator
+from pathlib import Path
+from typing import TYPE_CHECKING
 
 from sourcecheck.drafts.claims import Block, extract_claims
+from sourcecheck.drafts.pandoc import draft_bibliography, extract_keyed_claims, find_key_citations
 from sourcecheck.drafts.references import (
     find_reference_section,
     heading_at,
@@ -20,6 +23,9 @@ from sourcecheck.drafts.references import (
 )
 from sourcecheck.drafts.resolve import Resolver
 from sourcecheck.model import Draft, Problem
+
+if TYPE_CHECKING:  # the registry imports this module, so only the type comes from there
+    from sourcecheck.drafts import ReadOptions
 
 _COMMENT_RE = re.compile(r"<!--.*?(?:-->|\Z)", re.DOTALL)
 _FENCE_RE = re.compile(r"^\s{0,3}(`{3,}|~{3,})")
@@ -31,34 +37,56 @@ _TABLE_RE = re.compile(r"^\s*\|")
 _TABLE_RULE_RE = re.compile(r"^\s*\|?\s*:?-{2,}:?\s*(?:\|\s*:?-{2,}:?\s*)*\|?\s*$")
 
 
-def read_markdown(text: str, display: str) -> Draft:
-    """Claims, reference entries and problems of a Markdown or plain-text draft."""
+def read_markdown(
+    text: str, display: str, *, options: ReadOptions | None = None, base_dir: Path | None = None
+) -> Draft:
+    """Claims, reference entries and problems of a Markdown or plain-text draft.
+
+    A bibliography file, from ``options.bibliography`` (``--bib``) or the front matter's
+    ``bibliography:`` field (relative to ``base_dir``, the draft's folder), takes the place
+    of a written reference list; Pandoc key citations ("[@key]") are read against it.
+    """
     if not text.strip():
         return Draft(display, [], [], [Problem(display, "the draft is empty")])
     problems: list[Problem] = []
     lines = visible_lines(text)
     section = find_reference_section(lines)
+    bibliography = draft_bibliography(text, display, options.bibliography if options else None, base_dir)
+    problems.extend(bibliography.problems)
     references = []
     body = list(lines)
-    if section is None:
+    if section is not None:
+        entries = split_entries(lines[section.start : section.end], section.start + 1)
+        references = parse_references(entries)
+        where = f"'{section.title}' (line {section.heading_index + 1})"
+        if references and bibliography.references:
+            problems.append(Problem(display, f"the reference list under {where} is not used; the bibliography file is"))
+        elif not references and not bibliography.named:
+            problems.append(Problem(display, f"the reference list under {where} has no entries"))
+        body[section.heading_index : section.end] = [""] * (section.end - section.heading_index)
+    if bibliography.references:
+        references = bibliography.references
+    blocks = list(prose_blocks(body))
+    keyed = any(find_key_citations(block.text) for block in blocks)
+    if keyed and not bibliography.named:
+        problems.append(
+            Problem(
+                display,
+                "the draft cites by key (@key) but names no bibliography file; "
+                "give --bib or a 'bibliography:' field in the front matter",
+            )
+        )
+    elif section is None and not bibliography.named:
         problems.append(
             Problem(
                 display,
                 "no reference list found (no heading such as References, Bibliography or Works cited)",
             )
         )
+    if keyed:
+        claims = extract_keyed_claims(blocks, Resolver(references), {r.key for r in bibliography.references})
     else:
-        entries = split_entries(lines[section.start : section.end], section.start + 1)
-        references = parse_references(entries)
-        if not references:
-            problems.append(
-                Problem(
-                    display,
-                    f"the reference list under '{section.title}' (line {section.heading_index + 1}) has no entries",
-                )
-            )
-        body[section.heading_index : section.end] = [""] * (section.end - section.heading_index)
-    claims = extract_claims(prose_blocks(body), Resolver(references))
+        claims = extract_claims(blocks, Resolver(references))
     if not claims:
         problems.append(Problem(display, "no citation markers found in the text"))
     return Draft(display, claims, references, problems)
