@@ -28,7 +28,7 @@ def build_parser() -> argparse.ArgumentParser:
     )
     commands = parser.add_subparsers(dest="command", required=True, metavar="COMMAND")
     check = commands.add_parser("check", help="check a draft against a folder of source PDFs")
-    check.add_argument("draft", type=Path, help="the manuscript (Markdown or plain text)")
+    check.add_argument("draft", type=Path, help="the manuscript (Markdown, plain text or Word .docx)")
     check.add_argument(
         "--sources",
         type=Path,
@@ -55,6 +55,8 @@ def build_parser() -> argparse.ArgumentParser:
         help="local sentence-transformers model folder (default: bundled MiniLM)",
     )
     check.add_argument("--cache", type=Path, metavar="DIR", help="cache folder (default: the user cache directory)")
+    check.add_argument("--bib", type=Path, metavar="FILE", help="bibliography file for the draft's citation keys")
+    check.add_argument("--format-in", metavar="NAME", help="read the draft as this format, whatever its suffix")
     check.add_argument("--quiet", action="store_true", help="no progress bar")
     return parser
 
@@ -75,6 +77,7 @@ def _write_atomically(path: Path, text: str) -> None:
 def _run_check(args: argparse.Namespace) -> int:
     from rich.console import Console
 
+    from sourcecheck.drafts import ReadOptions
     from sourcecheck.pipeline import run
     from sourcecheck.reports import json_report, terminal
     from sourcecheck.reports.progress import progress_bar
@@ -89,6 +92,7 @@ def _run_check(args: argparse.Namespace) -> int:
             model=args.model,
             cache_dir=args.cache,
             progress=progress,
+            read_options=ReadOptions(bibliography=args.bib, format=args.format_in),
         )
     for problem in report.problems:
         print(f"sourcecheck: {problem.file}: {problem.message}", file=sys.stderr)  # one line, never wrapped

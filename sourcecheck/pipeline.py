@@ -11,10 +11,11 @@ import re
 from collections.abc import Callable
 from dataclasses import dataclass
 from pathlib import Path
+from typing import TypedDict, Unpack
 
 import numpy as np
 
-from sourcecheck.drafts import read_draft
+from sourcecheck.drafts import ReadOptions, read_draft
 from sourcecheck.errors import SourcesUnreadable
 from sourcecheck.index.cache import Cache, default_cache_dir, text_key
 from sourcecheck.index.dense import Encoder, resolve_model_path
@@ -226,12 +227,13 @@ def prepare(
     cache_dir: Path | None = None,
     progress: ProgressHook = _noop,
     stats: RunStats | None = None,
+    read_options: ReadOptions | None = None,
 ) -> Prepared:
     """Read the draft and the sources, build the index, match references, embed claims."""
     stats = stats if stats is not None else RunStats()
     model_path = resolve_model_path(model)
     mapping_table = load_mapping(mapping) if mapping is not None else None
-    draft = read_draft(draft_path, display=str(draft_path))
+    draft = read_draft(draft_path, display=str(draft_path), options=read_options)
     cache = Cache(cache_dir if cache_dir is not None else default_cache_dir())
     encoder = Encoder(model_path)
 
@@ -256,26 +258,24 @@ def prepare(
     )
 
 
-def run(
-    draft_path: Path,
-    sources_dir: Path,
-    *,
-    mapping: Path | None = None,
-    model: str | None = None,
-    cache_dir: Path | None = None,
-    progress: ProgressHook = _noop,
-    stats: RunStats | None = None,
-) -> Report:
+class RunOptions(TypedDict, total=False):
+    """The keyword options of :func:`prepare`, shared by :func:`run`."""
+
+    mapping: Path | None
+    model: str | None
+    cache_dir: Path | None
+    progress: ProgressHook
+    stats: RunStats | None
+    read_options: ReadOptions | None
+
+
+def run(draft_path: Path, sources_dir: Path, **options: Unpack[RunOptions]) -> Report:
     """Check every cited claim of ``draft_path`` against the PDFs under ``sources_dir``."""
-    prepared = prepare(
-        draft_path,
-        sources_dir,
-        mapping=mapping,
-        model=model,
-        cache_dir=cache_dir,
-        progress=progress,
-        stats=stats,
-    )
+    return judge_all(prepare(draft_path, sources_dir, **options), draft_path, sources_dir)
+
+
+def judge_all(prepared: Prepared, draft_path: Path, sources_dir: Path) -> Report:
+    """Judge every citation of every claim and assemble the report."""
     calibration = load_calibration()
     draft = prepared.draft
     references = {r.key: r for r in draft.references}
