@@ -226,3 +226,80 @@ def write_truncated_pdf(path: Path, source: Path, keep: float = 0.4) -> Path:
     data = source.read_bytes()
     path.write_bytes(data[: max(16, int(len(data) * keep))])
     return path
+
+
+# --- manuscripts (drafts submitted as PDF) ---------------------------------------------
+
+#: Where a manuscript line's number is set, and where its text starts (mm from the left).
+_NUMBER_X = 8.0
+_TEXT_X = 20.0
+
+
+def _split_superscripts(line: str) -> list[tuple[str, bool]]:
+    """ "rose^{2,3} and" -> [("rose", False), ("2,3", True), (" and", False)]."""
+    parts: list[tuple[str, bool]] = []
+    rest = line
+    while "^{" in rest:
+        before, _, after = rest.partition("^{")
+        raised, _, rest = after.partition("}")
+        if before:
+            parts.append((before, False))
+        parts.append((raised, True))
+    if rest:
+        parts.append((rest, False))
+    return parts
+
+
+def manuscript_pdf(
+    path: Path,
+    pages: Sequence[Sequence[str]],
+    *,
+    header: RunningLine = None,
+    footer: RunningLine = None,
+    line_numbers: int | None = 1,
+    superscript: str = "rise",
+) -> Path:
+    """A manuscript as submitted for review: one printed line per item, numbered in a margin.
+
+    Each page is a sequence of lines, written exactly as given (no wrapping); "" leaves a
+    gap and gets no number. ``"^{2}"`` inside a line sets "2" as a superscript, either
+    with fpdf2's ``char_vpos = "SUP"`` (smaller font and a text rise, ``Ts``) when
+    ``superscript="rise"``, or with a smaller font drawn at a raised baseline (a new text
+    position, ``Td``) when ``superscript="move"``. ``line_numbers`` is the numbering step
+    (1 numbers every line, 5 every fifth); numbers run on across pages; None for no margin.
+    """
+    pdf = _Pdf(header, footer)
+    counter = 0
+    for lines in pages:
+        pdf.add_page()
+        pdf.set_font(FONT, size=11)
+        for line in lines:
+            if not line:
+                pdf.ln(4)
+                continue
+            counter += 1
+            top = pdf.get_y()
+            if line_numbers and counter % line_numbers == 0:
+                pdf.set_x(_NUMBER_X)
+                pdf.cell(8, 6, str(counter))
+            pdf.set_xy(_TEXT_X, top)
+            if superscript == "move":
+                _line_by_baseline(pdf, line, top)
+            else:
+                for text, raised in _split_superscripts(line):
+                    pdf.char_vpos = "SUP" if raised else "LINE"
+                    pdf.cell(pdf.get_string_width(text), 6, text)
+                pdf.char_vpos = "LINE"
+            pdf.set_xy(pdf.l_margin, top + 6)
+    pdf.output(str(path))
+    return path
+
+
+def _line_by_baseline(pdf: FPDF, line: str, top: float) -> None:
+    """Draw a line piece by piece at an explicit baseline, superscripts 2.5 mm higher in 7 pt."""
+    x, baseline = _TEXT_X, top + 4.5
+    for text, raised in _split_superscripts(line):
+        pdf.set_font_size(7 if raised else 11)
+        pdf.text(x, baseline - 2.5 if raised else baseline, text)
+        x += pdf.get_string_width(text)
+    pdf.set_font_size(11)

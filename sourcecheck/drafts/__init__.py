@@ -11,7 +11,9 @@ from collections.abc import Callable
 from dataclasses import dataclass
 from pathlib import Path
 
+from sourcecheck.drafts.latex import read_latex
 from sourcecheck.drafts.markdown import read_markdown
+from sourcecheck.drafts.pdf_manuscript import read_pdf_manuscript
 from sourcecheck.drafts.textfile import decode, read_bytes
 from sourcecheck.drafts.word import read_word
 from sourcecheck.errors import DraftUnreadable
@@ -44,7 +46,12 @@ def _read_markdown_file(path: Path, display: str, options: ReadOptions) -> Draft
 
 
 # Format name -> reader. Later formats (LaTeX, Word, PDF) register here.
-READERS: dict[str, Reader] = {"markdown": _read_markdown_file, "word": read_word}
+READERS: dict[str, Reader] = {
+    "markdown": _read_markdown_file,
+    "word": read_word,
+    "latex": read_latex,
+    "pdf": read_pdf_manuscript,
+}
 
 # File suffix -> format name.
 FORMATS: dict[str, str] = {
@@ -55,6 +62,9 @@ FORMATS: dict[str, str] = {
     ".txt": "markdown",
     ".text": "markdown",
     ".docx": "word",
+    ".tex": "latex",
+    ".ltx": "latex",
+    ".pdf": "pdf",
 }
 
 
