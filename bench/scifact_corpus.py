@@ -336,19 +336,39 @@ def select_claims(claims: list[ClaimRecord], limit: int | None, seed: int) -> li
     return ordered if limit is None else ordered[:limit]
 
 
-def choose_decoys(claims: list[ClaimRecord], doc_ids: list[int], fraction: float, seed: int) -> dict[int, int]:
+# Decoys from the same field: drawn from these 0-based ranks of the claim's BM25 ranking
+# of abstracts it does not cite. Near the top would risk an abstract that does back the
+# claim (unlabelled); a random abstract is trivially far from it.
+NEAR_RANKS = range(4, 20)
+
+
+def choose_decoys(claims: list[ClaimRecord], docs: dict[int, Doc], fraction: float, seed: int) -> dict[int, int]:
     """Pick round(fraction * claims) claims and, for each, one abstract it does not cite.
 
-    Calibration needs truly unrelated claim-source pairs, which the dataset lacks: every
-    cited abstract there is at least on the claim's topic.
+    Calibration needs claim-source pairs where the source does not speak to the claim,
+    which the dataset lacks: every cited abstract there is on the claim's topic. Half the
+    decoys are random abstracts; half come from the same field (BM25 ranks 5-20), which
+    is what a citation to the wrong paper of a literature looks like.
     """
+    from rank_bm25 import BM25Okapi
+
+    from sourcecheck.index.tokens import tokenize
+
     rng = random.Random(f"decoys:{seed}")
-    pool = sorted(doc_ids)
+    pool = sorted(docs)
     count = min(len(claims), round(fraction * len(claims)))
     decoys: dict[int, int] = {}
-    for claim in rng.sample(claims, count):
+    index = BM25Okapi([tokenize(docs[d].title + " " + " ".join(docs[d].sentences)) or ["_"] for d in pool])
+    for number, claim in enumerate(rng.sample(claims, count)):
         candidates = [d for d in pool if d not in claim.cited]
-        if candidates:
+        if not candidates:
+            continue
+        if number % 2:
+            scores = index.get_scores(tokenize(claim.text))
+            ranked = [pool[i] for i in sorted(range(len(pool)), key=lambda i: -scores[i]) if pool[i] not in claim.cited]
+            near = [ranked[r] for r in NEAR_RANKS if r < len(ranked)]
+            decoys[claim.id] = rng.choice(near or candidates)
+        else:
             decoys[claim.id] = rng.choice(candidates)
     return decoys
 
@@ -520,7 +540,7 @@ def build(
     claims = load_claims(data_dir / CLAIMS_FILE, summary.problems)
     docs = load_corpus(data_dir / CORPUS_FILE, summary.problems)
     chosen = select_claims(claims, limit, seed)
-    decoy_of = choose_decoys(chosen, list(docs), decoys, seed)
+    decoy_of = choose_decoys(chosen, docs, decoys, seed)
     plan = Plan()
     for claim in chosen:
         decoy = decoy_of.get(claim.id)

@@ -332,15 +332,36 @@ def records(count: int) -> list:
     return [sc.ClaimRecord(id=i, text=f"Claim {i} holds.", cited=(1000 + i,)) for i in range(count)]
 
 
+def _docs(ids: list[int]) -> dict:
+    return {
+        d: sc.Doc(doc_id=d, title=f"Title {d}", sentences=(f"Abstract {d} about topic {d % 5}.",), structured=False)
+        for d in ids
+    }
+
+
 def test_decoy_count_and_targets() -> None:
     claims = records(40)
-    pool = [1000 + i for i in range(40)]
+    pool = _docs([1000 + i for i in range(40)])
     decoys = sc.choose_decoys(claims, pool, 0.25, seed=1)
     assert len(decoys) == 10  # 25% of 40 claims, one decoy each
     cited = {c.id: c.cited for c in claims}
     assert all(doc not in cited[claim] and doc in pool for claim, doc in decoys.items())
     assert sc.choose_decoys(claims, pool, 0.25, seed=1) == decoys
     assert sc.choose_decoys(claims, pool, 0.25, seed=2) != decoys
+
+
+def test_half_the_decoys_come_from_the_same_field() -> None:
+    # Invented field of 200 abstracts on four topics; a near decoy shares the claim's topic.
+    claims = [sc.ClaimRecord(id=i, text=f"Heron nests topic{i % 4} rose.", cited=(2000 + i,)) for i in range(8)]
+    docs = {
+        2000 + i: sc.Doc(
+            doc_id=2000 + i, title=f"Study {i}", sentences=(f"topic{i % 4} heron nests.",), structured=False
+        )
+        for i in range(200)
+    }
+    decoys = sc.choose_decoys(claims, docs, 1.0, seed=3)
+    near = [c for c in claims if f"topic{c.id % 4}" in docs[decoys[c.id]].sentences[0]]
+    assert len(near) >= len(claims) // 2
 
 
 def test_decoys_are_cited_and_labelled_unrelated(tmp_path: Path) -> None:
