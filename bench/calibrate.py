@@ -8,8 +8,8 @@ The corpus folder holds ``draft.md``, ``sources/``, ``mapping.csv`` and ``gold.j
 bench/scifact_corpus.py). The pipeline runs from those files exactly as a user runs it
 (draft reader, PDF extraction, index, features); then, on the ``fit`` split only:
 
-1. the fusion weight of the index is chosen for evidence hit@1 (top passage holds a
-   rationale sentence) among a few candidates;
+1. the fusion weight of the index is chosen for the mean reciprocal rank, within the top
+   three passages, of the first one holding a rationale sentence;
 2. a logistic regression maps the judge's features to P(the source backs the claim),
    SUPPORT against CONTRADICT, not-enough-info and unrelated decoys;
 3. ``adrift_below`` is the topical-score threshold that best separates unrelated decoys
@@ -101,17 +101,18 @@ def hits_for(prepared: Prepared, pair: Pair, weight: float) -> list[Hit]:
     return prepared.index.search(pair.query, pair.vector, source=pair.source, k=EVIDENCE_SEARCHED, dense_weight=weight)
 
 
-def hit_rates(prepared: Prepared, pairs: list[Pair], weight: float) -> tuple[float, float, int]:
-    """Evidence hit@1 and hit@3 over pairs that have rationales."""
+def hit_rates(prepared: Prepared, pairs: list[Pair], weight: float) -> tuple[float, float, float, int]:
+    """Evidence hit@1, hit@3 and mean reciprocal rank within the top 3, over pairs with rationales."""
     with_rationale = [p for p in pairs if p.rationales]
-    at1 = at3 = 0
+    at1 = at3 = reciprocal = 0.0
     for pair in with_rationale:
         hits = hits_for(prepared, pair, weight)
-        flags = [holds_rationale(h.passage.text, pair.rationales) for h in hits]
-        at1 += bool(flags[:1] and flags[0])
-        at3 += any(flags[:3])
+        flags = [holds_rationale(h.passage.text, pair.rationales) for h in hits[:3]]
+        at1 += bool(flags and flags[0])
+        at3 += any(flags)
+        reciprocal += next((1.0 / (i + 1) for i, flag in enumerate(flags) if flag), 0.0)
     n = max(1, len(with_rationale))
-    return at1 / n, at3 / n, len(with_rationale)
+    return at1 / n, at3 / n, reciprocal / n, len(with_rationale)
 
 
 def fit_logistic(x: np.ndarray, y: np.ndarray) -> tuple[np.ndarray, float]:
@@ -193,13 +194,13 @@ def main() -> int:
     holdout = [p for p in pairs if p.split == "holdout"]
     print(f"pairs: {len(pairs)} matched ({len(fit)} fit, {len(holdout)} holdout)")
 
-    print("\nfusion weight of the dense score -> evidence hit@1 / hit@3 (fit split)")
+    print("\nfusion weight of the dense score -> evidence hit@1 / hit@3 / MRR@3 (fit split)")
     best_weight, best_rate = search_module.DENSE_WEIGHT, -1.0
     for weight in WEIGHTS_TRIED:
-        at1, at3, n = hit_rates(prepared, fit, weight)
-        print(f"  {weight:.1f}: {at1:.3f} / {at3:.3f}  (n={n})")
-        if at1 > best_rate:
-            best_weight, best_rate = weight, at1
+        at1, at3, mrr, n = hit_rates(prepared, fit, weight)
+        print(f"  {weight:.1f}: {at1:.3f} / {at3:.3f} / {mrr:.3f}  (n={n})")
+        if mrr > best_rate:
+            best_weight, best_rate = weight, mrr
     print(f"chosen: {best_weight}")
 
     def features(pair: Pair) -> Features:
@@ -223,7 +224,7 @@ def main() -> int:
     print("\nweights:", dict(zip(FEATURE_NAMES, np.round(weights, 3), strict=True)), "bias:", round(bias, 3))
     print(f"thresholds: anchored_at {anchored_at:.3f}, adrift_below {adrift_below:.3f}")
 
-    at1, at3, n = hit_rates(prepared, holdout, best_weight)
+    at1, at3, _, n = hit_rates(prepared, holdout, best_weight)
     scores = np.array([calibration.score(features(p)) for p in holdout])
     support = np.array([p.label == "SUPPORT" for p in holdout])
     area = auroc(scores, support)
