@@ -11,7 +11,11 @@ renders it as:
 * ``draft-pandoc.md``: Pandoc Markdown; "[@key]" citations, ``bibliography: refs.bib``
   in the YAML front matter;
 * ``draft.tex``: LaTeX; ``\\cite{key}`` and ``\\cite{a,b}``, ``\\bibliography{refs}``;
-* ``refs.bib``: BibTeX for the eight entries of the reference list.
+* ``refs.bib``: BibTeX for the eight entries of the reference list;
+* ``draft.pdf``: the review copy a referee receives: A4, DejaVu Sans, a running header
+  and "Page n of N" footer on every page, every line numbered in the left margin (one
+  count through the document), bold headings, "[n]" markers typed in the text and the
+  reference list under "References" as "[n]" entries with a hanging indent.
 
 Why a copy and not a parse of draft.md: the formats test compares what the readers make
 of each version, so the versions must not come out of one of those readers. The test
@@ -24,7 +28,8 @@ the reference list, on purpose; in the keyed formats it cites ``dunes2016``, a k
 refs.bib does not hold, so it stays unresolved everywhere.
 
 Output is deterministic: the .docx carries fixed core-property dates and fixed zip entry
-times, so rerunning gives identical files.
+times, the .pdf a fixed creation date (fpdf2 derives the file ID from the content), so
+rerunning gives identical files.
 
 Run from anywhere: ``python scripts/make_sample_drafts.py [output-folder]``.
 """
@@ -43,13 +48,14 @@ import docx
 from docx.oxml import OxmlElement
 from docx.oxml.ns import qn
 from docx.text.paragraph import Paragraph as DocxParagraph
+from fpdf import FPDF
 
 REPO_ROOT = Path(__file__).resolve().parent.parent
 OUTPUT_DIR = REPO_ROOT / "sample_manuscript"
 REFERENCE_VERSION = OUTPUT_DIR / "draft.md"
 
 #: File names written by :func:`write_all`, relative to the output folder.
-OUTPUTS = ("draft.docx", "draft-pandoc.md", "draft.tex", "refs.bib")
+OUTPUTS = ("draft.docx", "draft-pandoc.md", "draft.tex", "refs.bib", "draft.pdf")
 
 # A fixed date keeps the .docx identical from run to run (the demo PDFs use the same one).
 CREATED = dt.datetime(2024, 3, 1, 12, 0, 0, tzinfo=dt.UTC)
@@ -508,6 +514,147 @@ def _fixed_zip_times(data: bytes) -> bytes:
     return out.getvalue()
 
 
+# --- PDF (the review copy) -----------------------------------------------------------------
+
+FONT_DIR = Path("/usr/share/fonts/truetype/dejavu")
+FONT_REGULAR = FONT_DIR / "DejaVuSans.ttf"
+FONT_BOLD = FONT_DIR / "DejaVuSans-Bold.ttf"
+RUNNING_HEADER = "Manuscript under review — do not distribute"
+
+PDF_MARGIN_LEFT = 30.0  # mm; the line numbers sit in the 12 mm to their left
+PDF_MARGIN_RIGHT = 22.0
+PDF_MARGIN_TOP = 24.0
+PDF_MARGIN_BOTTOM = 22.0
+NUMBER_GAP = 4.0  # between a line number's right edge and the text
+HANGING_INDENT = 8.0  # reference entries' continuation lines
+
+PDF_TITLE_SIZE = 13.0
+PDF_TITLE_LINE = 7.0
+PDF_HEADING_SIZE = 11.0
+PDF_BODY_SIZE = 11.0
+PDF_BODY_LINE = 8.5  # "double spacing", as journals ask of review copies (common practice, no source)
+PDF_REFERENCE_SIZE = 9.5
+PDF_REFERENCE_LINE = 6.5
+PDF_NUMBER_SIZE = 7.5
+
+
+def _tied_words(text: str) -> list[str]:
+    """The words of ``text`` split at its spaces, a "[n]" marker kept with the word before.
+
+    Typesetters tie a citation to the word it follows (common practice, no source), so
+    no line of the PDF starts with a marker. Joining the words with single spaces gives
+    ``text`` back exactly: draft.md has no double spaces.
+    """
+    words: list[str] = []
+    for word in text.split(" "):
+        if words and word.startswith("["):
+            words[-1] += " " + word
+        else:
+            words.append(word)
+    return words
+
+
+class ManuscriptPDF(FPDF):
+    """A4 review copy: running header, page footer, and a margin that numbers every line."""
+
+    def __init__(self) -> None:
+        super().__init__(format="A4", unit="mm")
+        self.add_font("DejaVu", "", str(FONT_REGULAR))
+        self.add_font("DejaVu", "B", str(FONT_BOLD))
+        self.set_margins(PDF_MARGIN_LEFT, PDF_MARGIN_TOP, PDF_MARGIN_RIGHT)
+        # Page breaks are placed by write_line, so every line gets its number first.
+        self.set_auto_page_break(auto=False)
+        self.set_creation_date(CREATED)
+        self.set_title(TITLE)
+        self.set_author("sourcecheck demo")
+        self.line_count = 0
+
+    def header(self) -> None:
+        self.set_font("DejaVu", "", 8)
+        self.set_text_color(90, 90, 90)
+        self.set_xy(PDF_MARGIN_LEFT, 11)
+        self.cell(self.epw, 4, RUNNING_HEADER, align="C")
+        self.set_text_color(0, 0, 0)
+        self.set_xy(PDF_MARGIN_LEFT, PDF_MARGIN_TOP)
+
+    def footer(self) -> None:
+        self.set_y(-14)
+        self.set_font("DejaVu", "", 8)
+        self.set_text_color(90, 90, 90)
+        # "{nb}" is fpdf2's alias for the page count, filled in at output time.
+        self.cell(0, 4, f"Page {self.page_no()} of {{nb}}", align="C")
+        self.set_text_color(0, 0, 0)
+
+    def write_line(self, text: str, style: str, size: float, height: float, indent: float = 0.0) -> None:
+        """One printed line with its number in the margin; a new page when it would not fit."""
+        if self.get_y() + height > self.h - PDF_MARGIN_BOTTOM:
+            self.add_page()
+        y = self.get_y()
+        self.line_count += 1
+        self.set_font("DejaVu", "", PDF_NUMBER_SIZE)
+        self.set_text_color(120, 120, 120)
+        # fpdf2 sets a cell's baseline 0.3 x the font size below the cell's middle; the
+        # smaller number goes down by the difference so both share the line's baseline.
+        self.set_xy(PDF_MARGIN_LEFT - NUMBER_GAP - 10, y + 0.3 * (size - PDF_NUMBER_SIZE) / self.k)
+        self.cell(10, height, str(self.line_count), align="R")
+        self.set_text_color(0, 0, 0)
+        self.set_font("DejaVu", style, size)
+        self.set_xy(PDF_MARGIN_LEFT + indent, y)
+        self.cell(self.epw - indent, height, text, align="L")
+        self.set_xy(PDF_MARGIN_LEFT, y + height)
+
+    def wrap(self, text: str, width: float) -> list[str]:
+        """``text`` broken at spaces into lines no wider than ``width`` in the current font."""
+        usable = width - 2 * self.c_margin - 0.05
+        lines: list[str] = []
+        current = ""
+        for word in _tied_words(text):
+            candidate = f"{current} {word}" if current else word
+            if current and self.get_string_width(candidate) > usable:
+                lines.append(current)
+                current = word
+            else:
+                current = candidate
+        if current:
+            lines.append(current)
+        return lines
+
+    def block(self, text: str, style: str, size: float, height: float, space_after: float) -> None:
+        """A title, heading or paragraph, left-aligned so word gaps stay plain spaces."""
+        self.set_font("DejaVu", style, size)
+        for line in self.wrap(text, self.epw):
+            self.write_line(line, style, size, height)
+        self.set_y(self.get_y() + space_after)
+
+    def entry(self, number: int, text: str) -> None:
+        """A reference entry: "[n] ..." with its continuation lines indented."""
+        self.set_font("DejaVu", "", PDF_REFERENCE_SIZE)
+        words = _tied_words(f"[{number}] {text}")
+        first = self.wrap(" ".join(words), self.epw)[0]
+        rest = " ".join(words)[len(first) + 1 :]
+        self.write_line(first, "", PDF_REFERENCE_SIZE, PDF_REFERENCE_LINE)
+        for line in self.wrap(rest, self.epw - HANGING_INDENT) if rest else []:
+            self.write_line(line, "", PDF_REFERENCE_SIZE, PDF_REFERENCE_LINE, HANGING_INDENT)
+        self.set_y(self.get_y() + 1.0)
+
+
+def render_pdf() -> bytes:
+    """draft.pdf: the draft as a reviewer's PDF; same sentences, typed "[n]" markers."""
+    pdf = ManuscriptPDF()
+    pdf.add_page()
+    pdf.block(TITLE, "B", PDF_TITLE_SIZE, PDF_TITLE_LINE, 2.0)
+    pdf.block(NOTE, "", PDF_BODY_SIZE, PDF_BODY_LINE, 3.0)
+    for heading, paragraphs in SECTIONS:
+        pdf.block(heading, "B", PDF_HEADING_SIZE, PDF_BODY_LINE, 0.0)
+        for paragraph in paragraphs:
+            text = "".join(p if isinstance(p, str) else p.written for p in paragraph)
+            pdf.block(text, "", PDF_BODY_SIZE, PDF_BODY_LINE, 2.5)
+    pdf.block(REFERENCES_HEADING, "B", PDF_HEADING_SIZE, PDF_BODY_LINE, 0.0)
+    for work in WORKS:
+        pdf.entry(work.number, "".join(text for text, _ in entry_runs(work)))
+    return bytes(pdf.output())
+
+
 # --- writing ---------------------------------------------------------------------------
 
 
@@ -518,6 +665,7 @@ def rendered() -> dict[str, bytes]:
         "draft-pandoc.md": render_pandoc().encode("utf-8"),
         "draft.tex": render_latex().encode("utf-8"),
         "refs.bib": render_bibtex().encode("utf-8"),
+        "draft.pdf": render_pdf(),
     }
 
 

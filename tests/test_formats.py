@@ -1,14 +1,16 @@
 """The demo draft in every input format gives the same report as the Markdown original.
 
 ``scripts/make_sample_drafts.py`` writes the demo of ``sample_manuscript/draft.md`` as a
-Word document, Pandoc Markdown with a .bib, and LaTeX with the same .bib. The readers
+Word document, Pandoc Markdown with a .bib, LaTeX with the same .bib, and a reviewer's
+PDF (running header, page footer, numbered lines). The readers
 differ; what they hand the rest of the pipeline must not: the same claims in the same
 order, the same bands, the same source files. The real pipeline runs once per format,
 all formats sharing one cache so the PDFs are read and embedded once.
 
 The files are also checked against what their formats' own documents say a writer may
 put in them (Pandoc's citation syntax, BibTeX's entry types and fields, WordprocessingML
-numbering), so a passing run is not two of our own mistakes agreeing.
+numbering, the PDF's text and fonts as pypdf and pdfminer.six read them), so a passing
+run is not two of our own mistakes agreeing.
 """
 
 from __future__ import annotations
@@ -24,6 +26,9 @@ from types import ModuleType
 import bibtexparser
 import docx
 import pytest
+from pdfminer.high_level import extract_pages
+from pdfminer.layout import LTChar, LTComponent
+from pypdf import PdfReader
 
 from sourcecheck.drafts import ReadOptions
 from sourcecheck.model import Claim, Report
@@ -40,6 +45,7 @@ VERSIONS = {
     "pandoc": MANUSCRIPT / "draft-pandoc.md",
     "word": MANUSCRIPT / "draft.docx",
     "latex": MANUSCRIPT / "draft.tex",
+    "pdf": MANUSCRIPT / "draft.pdf",
 }
 BIB = MANUSCRIPT / "refs.bib"
 UNRESOLVED_KEY = "dunes2016"
@@ -142,6 +148,27 @@ def _members(data: bytes) -> dict[str, bytes]:
         return {info.filename: package.read(info) for info in package.infolist()}
 
 
+def _pdf_pages(path: Path) -> list[tuple[str, bytes]]:
+    """Per page, pypdf's text and the decompressed content stream."""
+    reader = PdfReader(path)
+    return [(page.extract_text(), page.get_contents().get_data()) for page in reader.pages]
+
+
+def _pdf_prose(path: Path) -> str:
+    """The PDF's text as pypdf reads it, one string: header, footer and margin numbers out.
+
+    Done here with the layout the generator is known to use, not with the reader under
+    test: a line is "<number> <text>", the header and "Page n of N" lines stand alone.
+    """
+    lines = []
+    for page in PdfReader(path).pages:
+        for line in page.extract_text().splitlines():
+            if line == script.RUNNING_HEADER or re.fullmatch(r"Page \d+ of \d+", line):
+                continue
+            lines.append(re.sub(r"^\d+ ?", "", line, count=1))
+    return " ".join(lines)
+
+
 def test_committed_versions_are_up_to_date(tmp_path: Path) -> None:
     written = script.write_all(tmp_path)
     assert sorted(p.name for p in written) == sorted(script.OUTPUTS)
@@ -150,6 +177,9 @@ def test_committed_versions_are_up_to_date(tmp_path: Path) -> None:
         if path.suffix == ".docx":
             # Parts, not raw bytes: another zlib may compress the same part differently.
             assert _members(path.read_bytes()) == _members(committed.read_bytes()), path.name
+        elif path.suffix == ".pdf":
+            # Decompressed page contents, for the same reason: what is drawn where, in which font.
+            assert _pdf_pages(path) == _pdf_pages(committed), f"{path.name}: run scripts/make_sample_drafts.py"
         else:
             assert path.read_bytes() == committed.read_bytes(), f"{path.name}: run scripts/make_sample_drafts.py"
 
@@ -160,13 +190,15 @@ def test_generator_is_deterministic() -> None:
 
 def test_sentences_are_the_same_characters_in_every_version() -> None:
     # Each prose stretch between two markers occurs verbatim in every text version
-    # (LaTeX with its "%" escaped) and in the Word document's paragraphs.
+    # (LaTeX with its "%" escaped), in the Word document's paragraphs and in the PDF's
+    # lines put back together (the PDF breaks lines at spaces only).
     word = "\n".join(p.text for p in docx.Document(str(VERSIONS["word"])).paragraphs)
     texts = {
         "markdown": VERSIONS["markdown"].read_text(encoding="utf-8"),
         "pandoc": VERSIONS["pandoc"].read_text(encoding="utf-8"),
         "latex": VERSIONS["latex"].read_text(encoding="utf-8").replace(r"\%", "%"),
         "word": word,
+        "pdf": _pdf_prose(VERSIONS["pdf"]),
     }
     stretches = [
         part.strip()
@@ -311,3 +343,70 @@ def test_word_version_has_heading_styles_and_word_numbered_references() -> None:
     # The typed markers are there as text.
     body = "\n".join(p.text for p in paragraphs)
     assert "heathland [2, 5]." in body and "management [3–4]." in body and "systems [9]." in body
+
+
+# The PDF as two reference libraries read it. pdfminer.six gives every glyph with its font
+# and text matrix; pypdf the text and the document information dictionary.
+_MM = 72 / 25.4  # PostScript points per millimetre (ISO 32000-1, 8.3.2.3, from memory: 1/72 in)
+_SAME_BASELINE = 0.2  # points; fpdf2 writes positions to 1/100 of a point
+
+
+def _glyphs(item: LTComponent) -> list[LTChar]:
+    if isinstance(item, LTChar):
+        return [item]
+    return [glyph for child in item for glyph in _glyphs(child)] if hasattr(item, "__iter__") else []
+
+
+def _baseline_lines(glyphs: list[LTChar]) -> list[tuple[float, list[LTChar]]]:
+    """Glyphs by baseline (the text matrix's y, ISO 32000-1, 9.4.4), top of the page first."""
+    lines: dict[float, list[LTChar]] = {}
+    for glyph in glyphs:
+        lines.setdefault(round(glyph.matrix[5], 1), []).append(glyph)
+    # PDF y grows upwards (ISO 32000-1, 8.3.2.3, from memory).
+    return [(y, sorted(lines[y], key=lambda g: g.x0)) for y in sorted(lines, reverse=True)]
+
+
+def _text(glyphs: list[LTChar]) -> str:
+    return "".join(glyph.get_text() for glyph in glyphs)
+
+
+def test_pdf_version_is_a_numbered_review_copy() -> None:
+    path = VERSIONS["pdf"]
+    pages = list(extract_pages(str(path)))
+    assert 2 <= len(pages) <= 3  # the brief's length for the review copy
+    headings = [heading for heading, _ in script.SECTIONS] + [script.REFERENCES_HEADING]
+    numbers: list[int] = []
+    bold_lines: list[str] = []
+    for number, page in enumerate(pages, start=1):
+        glyphs = _glyphs(page)
+        margin = _baseline_lines([g for g in glyphs if g.x1 < script.PDF_MARGIN_LEFT * _MM])
+        text = _baseline_lines([g for g in glyphs if g.x0 >= script.PDF_MARGIN_LEFT * _MM])
+        # Furniture: the running header on top, "Page n of N" at the foot, neither numbered.
+        assert _text(text[0][1]) == script.RUNNING_HEADER
+        assert _text(text[-1][1]) == f"Page {number} of {len(pages)}"
+        body = text[1:-1]
+        # Every printed line has its number at the left on its own baseline, and no number
+        # stands beside nothing.
+        assert len(margin) == len(body)
+        for (y_number, digits), (y_line, line) in zip(margin, body, strict=True):
+            assert abs(y_number - y_line) <= _SAME_BASELINE, _text(line)
+            numbers.append(int(_text(digits)))
+            fonts = {"Bold" in glyph.fontname for glyph in line if glyph.get_text().strip()}
+            assert len(fonts) == 1, _text(line)  # a line is bold or not, never mixed
+            if fonts == {True}:
+                bold_lines.append(_text(line))
+    assert numbers == list(range(1, len(numbers) + 1))  # one count through the document
+    # Bold: the title (its lines put back together) and the headings, and nothing else.
+    title_lines = len(bold_lines) - len(headings)
+    assert " ".join(bold_lines[:title_lines]) == script.TITLE
+    assert bold_lines[title_lines:] == headings
+
+    reader = PdfReader(path)
+    # ISO 32000-1, 14.3.3 and 7.9.4 (from memory): CreationDate in the Info dictionary,
+    # written "D:YYYYMMDDHHmmSS" with a time-zone offset; pypdf parses it.
+    assert reader.metadata is not None and reader.metadata.creation_date == script.CREATED
+    # The reference list: the eight "[n]" entries under the heading, in order, in full.
+    listed = _pdf_prose(path).split(f" {script.REFERENCES_HEADING} ", 1)[1]
+    assert re.findall(r"\[(\d+)\] ", listed) == [str(work.number) for work in script.WORKS]
+    for work in script.WORKS:
+        assert f"[{work.number}] {''.join(text for text, _ in script.entry_runs(work))}" in listed
