@@ -116,6 +116,9 @@ class Source:
     first_page_text: str
     passages: list[Passage]
     author: str | None = None
+    #: The page number printed on each PDF page ("305"), None where none could be read;
+    #: one entry per PDF page, or empty when the document shows no consistent numbering.
+    printed_pages: tuple[str | None, ...] = ()
 
 
 # --- matching (reference -> source) ----------------------------------------------------
@@ -188,6 +191,7 @@ class Evidence:
     page: int
     score: float
     source: str
+    printed_page: str | None = None  # the page number printed on that PDF page, when known
 
 
 @dataclass

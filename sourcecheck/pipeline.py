@@ -21,12 +21,20 @@ from sourcecheck.index.cache import Cache, default_cache_dir, text_key
 from sourcecheck.index.dense import Encoder, resolve_model_path
 from sourcecheck.index.search import EvidenceIndex
 from sourcecheck.judge.calibration import Calibration, load_calibration
-from sourcecheck.judge.verdict import better_source_reason, judge, unverifiable
+from sourcecheck.judge.locators import cited_pages, pdf_pages, prefers_located
+from sourcecheck.judge.verdict import (
+    better_source_reason,
+    judge,
+    page_mismatch_reason,
+    unverifiable,
+    with_printed_pages,
+)
 from sourcecheck.model import (
     Check,
     Claim,
     ClaimResult,
     Draft,
+    Hit,
     ModelInfo,
     Passage,
     Problem,
@@ -156,7 +164,15 @@ def _check_citation(
     matches: dict[str, SourceMatch],
     index: EvidenceIndex,
     calibration: Calibration,
+    sources: dict[str, Source] | None = None,
 ) -> Check:
+    """Judge one citation of a claim against its matched source.
+
+    A citation with a page locator is judged on the cited pages when they back the claim
+    about as well as the whole source does (:func:`~sourcecheck.judge.locators.prefers_located`);
+    otherwise on the whole source, with a ``page-mismatch`` reason naming where the
+    backing is. ``sources`` (by display path) gives the printed page numbers.
+    """
     citation = claim.citations[citation_index]
     if citation.key is None or citation.key not in references:
         return unverifiable(
@@ -179,7 +195,28 @@ def _check_citation(
         )
     weight = calibration.dense_weight
     hits = index.search(claim_text, vector, source=match.source, k=EVIDENCE_SEARCHED, dense_weight=weight)
-    check = judge(claim_text, citation, reference, match.source, hits, calibration)
+    source = sources.get(match.source) if sources else None
+    printed = source.printed_pages if source is not None else ()
+    cited = cited_pages(citation.locator)
+    mismatch: tuple[Hit, bool] | None = None  # (where the backing is, whether the cited page exists)
+    if cited and hits and source is not None:
+        wanted = pdf_pages(cited, printed, source.pages)
+        located = (
+            index.search(
+                claim_text, vector, source=match.source, k=EVIDENCE_SEARCHED, dense_weight=weight, pages=wanted
+            )
+            if wanted
+            else []
+        )
+        if prefers_located(located, hits):
+            hits = located
+        else:
+            mismatch = (hits[0], bool(wanted))
+    check = with_printed_pages(judge(claim_text, citation, reference, match.source, hits, calibration), printed)
+    if mismatch is not None and citation.locator:
+        page_reason = page_mismatch_reason(check, citation.locator, mismatch[0], printed, page_exists=mismatch[1])
+        if page_reason is not None:
+            check.reasons.append(page_reason)
     # Another work this claim already cites is no "better source": the author cited both.
     cited_here = {matches[c.key].source for c in claim.citations if c.key in matches}
     alternatives = [
@@ -279,10 +316,11 @@ def judge_all(prepared: Prepared, draft_path: Path, sources_dir: Path) -> Report
     calibration = load_calibration()
     draft = prepared.draft
     references = {r.key: r for r in draft.references}
+    sources = {s.path: s for s in prepared.sources}
     results = []
     for claim, query, vector in zip(draft.claims, prepared.queries, prepared.claim_vectors, strict=False):
         checks = [
-            _check_citation(query, vector, i, claim, references, prepared.matches, prepared.index, calibration)
+            _check_citation(query, vector, i, claim, references, prepared.matches, prepared.index, calibration, sources)
             for i in range(len(claim.citations))
         ]
         results.append(ClaimResult(claim=claim, checks=checks))

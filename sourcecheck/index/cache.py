@@ -23,7 +23,8 @@ import platformdirs
 
 from sourcecheck.model import Passage, Source
 
-FORMAT = 1
+#: Version of the entry layout; 2 added ``printed_pages``. Older entries are rebuilt.
+FORMAT = 2
 
 
 def default_cache_dir() -> Path:
@@ -94,6 +95,7 @@ class Cache:
                 first_page_text=str(data["first_page_text"]),
                 passages=passages,
                 author=data.get("author"),
+                printed_pages=tuple(None if label is None else str(label) for label in data["printed_pages"]),
             )
         except (OSError, ValueError, KeyError, TypeError) as exc:
             self.warnings.append(f"cache entry {path.name} was unreadable ({exc}); rebuilt")

@@ -29,6 +29,7 @@ class EvidenceIndex:
         self.passages = list(passages)
         self._vectors = vectors if vectors.size else np.zeros((0, 1), dtype=np.float32)
         self._lexical = LexicalIndex([p.text for p in self.passages])
+        self._pages = np.asarray([p.page for p in self.passages], dtype=int)
         self._by_source: dict[str, np.ndarray] = {}
         for position, passage in enumerate(self.passages):
             self._by_source.setdefault(passage.source, []).append(position)  # type: ignore[arg-type]
@@ -45,12 +46,20 @@ class EvidenceIndex:
         source: str | None = None,
         k: int = 3,
         dense_weight: float = DENSE_WEIGHT,
+        pages: set[int] | None = None,
     ) -> list[Hit]:
-        """The ``k`` best passages for ``query``, within ``source`` if given, best first."""
+        """The ``k`` best passages for ``query``, within ``source`` and ``pages`` if given, best first.
+
+        ``pages`` (1-based PDF pages) narrows the candidates only: BM25 is still scaled by
+        its best score over the whole folder, so the fused scores of a page-restricted
+        search compare directly with those of the unrestricted one.
+        """
         if source is None:
             candidates = np.arange(len(self.passages))
         else:
             candidates = self._by_source.get(source, np.zeros(0, dtype=int))
+        if pages is not None and candidates.size:
+            candidates = candidates[np.isin(self._pages[candidates], sorted(pages))]
         if candidates.size == 0:
             return []
         lexical_all = self._lexical.scores(query)

@@ -11,10 +11,12 @@ Order of the rules (each stated in the README):
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from dataclasses import replace
 
 from sourcecheck.judge.calibration import Calibration
 from sourcecheck.judge.features import Features, features_of
+from sourcecheck.judge.locators import page_label
 from sourcecheck.model import Band, Check, Citation, Evidence, Hit, Reason, Reference
 
 EVIDENCE_SHOWN = 2
@@ -132,6 +134,36 @@ def better_source_reason(check: Check, alternative: Hit, claim: str, calibration
         f"{alternative.passage.source} backs the claim better (p. {alternative.passage.page}, score {other:.2f}): "
         f'"{trim(alternative.passage.text, 30)}"',
     )
+
+
+def page_mismatch_reason(
+    check: Check, locator: str, hit: Hit, printed: Sequence[str | None], *, page_exists: bool = True
+) -> Reason | None:
+    """A ``page-mismatch`` reason: the cited page does not hold the backing, ``hit``'s page does.
+
+    Only said when the source backs the claim somewhere (anchored, loose or conflict):
+    for an adrift claim there is no "right page" to point to, and the band says enough.
+    ``page_exists`` is False when no page of the source carries the cited number.
+    """
+    if check.band in (Band.ADRIFT, Band.UNVERIFIABLE):
+        return None
+    cited = " ".join(locator.replace("~", " ").split())
+    where = page_label(hit.passage.page, printed)
+    if not page_exists:
+        return Reason(
+            "page-mismatch", f"cited {cited}, a page this source does not have; the closest passage is on {where}"
+        )
+    return Reason("page-mismatch", f"cited {cited}, but the closest passage is on {where}")
+
+
+def with_printed_pages(check: Check, printed: Sequence[str | None]) -> Check:
+    """The check with each evidence item's printed page number filled in where known."""
+    if not printed:
+        return check
+    check.evidence = [
+        replace(e, printed_page=printed[e.page - 1]) if 0 < e.page <= len(printed) else e for e in check.evidence
+    ]
+    return check
 
 
 def trim(text: str, words: int) -> str:

@@ -8,7 +8,7 @@ from __future__ import annotations
 import json
 from typing import Any
 
-from sourcecheck.model import Check, Reference, Report
+from sourcecheck.model import Check, Evidence, Reference, Report
 from sourcecheck.reports.caution import CAUTION
 
 SCHEMA = "sourcecheck.report/1"
@@ -35,8 +35,22 @@ def _check(check: Check) -> dict[str, Any]:
         "band": check.band.value,
         "score": check.score,
         "reasons": [{"code": r.code, "message": r.message} for r in check.reasons],
-        "evidence": [{"text": e.text, "page": e.page, "score": e.score, "source": e.source} for e in check.evidence],
+        "evidence": [_evidence(e) for e in check.evidence],
     }
+
+
+def _evidence(evidence: Evidence) -> dict[str, Any]:
+    """One evidence item; ``page`` is the PDF page, ``printed_page`` (only when known) the
+    number printed on it, which is what a citation's "p. 306" refers to."""
+    item: dict[str, Any] = {
+        "text": evidence.text,
+        "page": evidence.page,
+        "score": evidence.score,
+        "source": evidence.source,
+    }
+    if evidence.printed_page is not None:
+        item["printed_page"] = evidence.printed_page
+    return item
 
 
 def to_dict(report: Report) -> dict[str, Any]:

@@ -12,7 +12,7 @@ from rich.padding import Padding
 from rich.text import Text
 
 from sourcecheck.judge.verdict import trim
-from sourcecheck.model import Band, Check, ClaimResult, Report
+from sourcecheck.model import Band, Check, ClaimResult, Evidence, Report
 from sourcecheck.reports.caution import CAUTION
 
 BAND_STYLE = {
@@ -23,6 +23,14 @@ BAND_STYLE = {
     Band.UNVERIFIABLE: "bold blue",
 }
 PASSAGE_WORDS = 45
+
+
+def _page(evidence: Evidence) -> str:
+    """ "p. 2", or "p. 2 (printed 306)" when the page prints another number."""
+    printed = evidence.printed_page
+    if printed is None or printed == str(evidence.page):
+        return f"p. {evidence.page}"
+    return f"p. {evidence.page} (printed {printed})"
 
 
 def _check_block(check: Check) -> Group:
@@ -37,7 +45,7 @@ def _check_block(check: Check) -> Group:
         best = check.evidence[0]
         lines.append(
             Padding(
-                Text(f"p. {best.page}: \u201c{trim(best.text, PASSAGE_WORDS)}\u201d", style="italic"),
+                Text(f"{_page(best)}: \u201c{trim(best.text, PASSAGE_WORDS)}\u201d", style="italic"),
                 (0, 0, 0, 2),
             )
         )

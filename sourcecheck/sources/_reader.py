@@ -2,7 +2,8 @@
 
 Order of work, and why:
   1. pypdf text per page, characters normalised (ligatures, odd spaces).
-  2. Running headers/footers and page numbers dropped, using all pages as evidence.
+  2. Printed page numbers read (before they go), then running headers/footers and page
+     numbers dropped, using all pages as evidence.
   3. The reference list cut out (it needs page furniture gone so its heading is a line).
   4. Lines grouped into paragraphs; line-end hyphens mended with the document's own
      vocabulary as the judge of compounds.
@@ -35,6 +36,7 @@ from sourcecheck.sources._layout import (
 )
 from sourcecheck.sources._passages import ends_sentence, make_passages
 from sourcecheck.sources._pdf import PdfUnreadable, RawPdf, one_line, read_pdf
+from sourcecheck.sources._printed import printed_page_numbers
 from sourcecheck.sources._refsection import before_reference_heading, cut_reference_sections
 
 #: How much of page 1 is kept for matching a reference to this source.
@@ -182,4 +184,5 @@ def _build(raw: RawPdf, texts: list[str], display: str, sha256: str, max_words: 
         first_page_text=_with_running_lines(_first_page_text(paragraphs[0]) if paragraphs else "", lines, body),
         passages=without_front_matter(make_passages(display, paragraphs, max_words), title or _first_line(paragraphs)),
         author=author,
+        printed_pages=printed_page_numbers(lines),
     )

@@ -1,5 +1,6 @@
 """The passage and vector cache: round trips, atomic writes, corrupt entries rebuilt."""
 
+import json
 from pathlib import Path
 
 import numpy as np
@@ -64,3 +65,24 @@ def test_writes_leave_no_temporary_files(tmp_path: Path) -> None:
     cache.save_vectors("passages", "k", np.zeros((1, 2)))
     leftovers = [p for p in tmp_path.rglob("*") if p.name.startswith(".tmp-")]
     assert leftovers == []
+
+
+def test_printed_page_numbers_survive_the_round_trip(tmp_path: Path) -> None:
+    cache = Cache(tmp_path)
+    source = _source()
+    source.printed_pages = ("305", None)
+    cache.save_source(source, "x1")
+    loaded = cache.load_source("ab" * 32, "x1", "a.pdf")
+    assert loaded is not None and loaded.printed_pages == ("305", None)
+
+
+def test_entry_of_the_older_format_is_rebuilt(tmp_path: Path) -> None:
+    cache = Cache(tmp_path)
+    cache.save_source(_source(), "x1")
+    entry = tmp_path / "sources" / f"{'ab' * 32}-x1.json"
+    old = json.loads(entry.read_text(encoding="utf-8"))
+    old["format"] = 1
+    del old["printed_pages"]
+    entry.write_text(json.dumps(old), encoding="utf-8")
+    assert cache.load_source("ab" * 32, "x1", "a.pdf") is None
+    assert len(cache.warnings) == 1

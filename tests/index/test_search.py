@@ -44,3 +44,22 @@ def test_unknown_source_gives_no_hits_and_empty_index_is_valid() -> None:
     index = EvidenceIndex(PASSAGES, _vectors())
     assert index.search("heron", np.zeros(4, dtype=np.float32), source="c.pdf") == []
     assert EvidenceIndex([], np.zeros((0, 0))).search("heron", np.zeros(4)) == []
+
+
+def test_search_restricted_to_pages_keeps_scores_comparable() -> None:
+    index = EvidenceIndex(PASSAGES, _vectors())
+    query = np.array([0.9, 0.3, 0.0, 0.0], dtype=np.float32)
+    whole = index.search("heron nests tide", query, source="a.pdf", k=5)
+    located = index.search("heron nests tide", query, source="a.pdf", k=5, pages={2})
+    assert [h.passage.page for h in located] == [2]
+    # The same passage scores the same whether or not the search was narrowed to its page.
+    same = next(h for h in whole if h.passage.page == 2)
+    assert located[0].fused == same.fused and located[0].bm25 == same.bm25
+
+
+def test_pages_across_sources_and_pages_with_no_passage() -> None:
+    index = EvidenceIndex(PASSAGES, _vectors())
+    hits = index.search("heron", np.ones(4, dtype=np.float32), k=5, pages={1})
+    assert {(h.passage.source, h.passage.page) for h in hits} == {("a.pdf", 1), ("b.pdf", 1)}
+    assert index.search("heron", np.ones(4, dtype=np.float32), source="a.pdf", pages={9}) == []
+    assert index.search("heron", np.ones(4, dtype=np.float32), source="a.pdf", pages=set()) == []

@@ -2,7 +2,7 @@
 
 from sourcecheck.judge.calibration import Calibration, load_calibration
 from sourcecheck.judge.features import FEATURE_NAMES
-from sourcecheck.judge.verdict import better_source_reason, judge
+from sourcecheck.judge.verdict import better_source_reason, judge, page_mismatch_reason, with_printed_pages
 from sourcecheck.model import Band, Citation, Hit, Passage
 
 # A transparent calibration for the rules: score rises with similarity and coverage.
@@ -61,3 +61,39 @@ def test_shipped_calibration_matches_the_feature_list() -> None:
     shipped = load_calibration()
     assert len(shipped.weights) == len(FEATURE_NAMES)
     assert 0.0 < shipped.adrift_below < shipped.anchored_at < 1.0
+
+
+# --- page locators ---------------------------------------------------------------------
+
+
+def test_page_mismatch_names_the_cited_and_the_printed_page() -> None:
+    # The backing passage sits on PDF page 1, which prints "305"; the author cited p. 306.
+    backing = _hit("Heron nests rose by 18%.", 0.95, 1.0, page=1)
+    check = judge("Heron nests rose by 18%.", CITE, None, "a.pdf", [backing], CAL)
+    reason = page_mismatch_reason(check, "p. 306", backing, ("305", "306"))
+    assert reason is not None and reason.code == "page-mismatch"
+    assert reason.message == "cited p. 306, but the closest passage is on p. 305 (PDF p. 1)"
+    plain = page_mismatch_reason(check, "p.~7", _hit("x", 0.9, 1.0, page=4), ())
+    assert plain is not None and plain.message == "cited p. 7, but the closest passage is on p. 4"
+
+
+def test_page_mismatch_says_when_the_cited_page_is_not_in_the_source() -> None:
+    backing = _hit("Heron nests rose by 18%.", 0.95, 1.0, page=2)
+    check = judge("Heron nests rose by 18%.", CITE, None, "a.pdf", [backing], CAL)
+    reason = page_mismatch_reason(check, "p. 999", backing, (), page_exists=False)
+    assert reason is not None and "does not have" in reason.message and "p. 2" in reason.message
+
+
+def test_no_page_mismatch_for_an_adrift_claim() -> None:
+    stray = _hit("Salinity was measured weekly.", 0.1, 0.0, page=2)
+    check = judge("Heron nests rose.", CITE, None, "a.pdf", [stray], CAL)
+    assert check.band is Band.ADRIFT
+    assert page_mismatch_reason(check, "p. 7", stray, ()) is None
+
+
+def test_evidence_gets_the_printed_page_of_its_pdf_page() -> None:
+    hits = [_hit("Heron nests rose by 18%.", 0.95, 1.0, page=2), _hit("Herons nest.", 0.5, 0.5, page=3)]
+    check = with_printed_pages(judge("Heron nests rose by 18%.", CITE, None, "a.pdf", hits, CAL), ("305", "306", None))
+    assert [(e.page, e.printed_page) for e in check.evidence] == [(2, "306"), (3, None)]
+    bare = with_printed_pages(judge("Heron nests rose by 18%.", CITE, None, "a.pdf", hits, CAL), ())
+    assert [e.printed_page for e in bare.evidence] == [None, None]

@@ -1,6 +1,7 @@
 """The JSON report keeps the contract of DESIGN.md."""
 
 import json
+from dataclasses import replace
 
 from sourcecheck.reports.caution import CAUTION
 from sourcecheck.reports.json_report import SCHEMA, dumps
@@ -39,3 +40,17 @@ def test_references_unused_sources_and_problems() -> None:
     assert data["unused_sources"] == ["src/orphan.pdf"]
     assert data["problems"] == [{"file": "src/broken.pdf", "message": "not a PDF (no %PDF- header)"}]
     assert data["summary"]["conflict"] == 1 and data["summary"]["unverifiable"] == 2
+
+
+def _with_printed_page(printed: str | None) -> dict:
+    report = sample_report()
+    check = report.claims[0].checks[0]
+    check.evidence = [replace(e, page=2, printed_page=printed) for e in check.evidence]
+    return json.loads(dumps(report))["claims"][0]["checks"][0]["evidence"][0]
+
+
+def test_evidence_keeps_the_pdf_page_and_adds_the_printed_one_when_known() -> None:
+    # DESIGN.md contract: "page" is the 1-based page of the PDF; "printed_page" is an added field.
+    item = _with_printed_page("306")
+    assert item["page"] == 2 and item["printed_page"] == "306"
+    assert "printed_page" not in _with_printed_page(None)

@@ -1,6 +1,7 @@
 """The terminal report, rendered at a fixed width without colour (rich's own test pattern)."""
 
 import io
+from dataclasses import replace
 
 from rich.console import Console
 
@@ -33,3 +34,12 @@ def test_loose_ends_problems_summary_and_caution_are_listed() -> None:
 
 def test_summary_counts_every_band() -> None:
     assert summary_line(sample_report()) == "3 checks: 0 anchored, 0 loose, 1 conflict, 0 adrift, 2 unverifiable"
+
+
+def test_printed_page_is_shown_beside_the_pdf_page() -> None:
+    report = sample_report()
+    check = report.claims[0].checks[0]
+    check.evidence = [replace(e, page=2, printed_page="306") for e in check.evidence]
+    console = Console(width=60, file=io.StringIO(), force_terminal=True, color_system=None)
+    render(report, console)
+    assert "p. 2 (printed 306):" in console.file.getvalue()  # type: ignore[attr-defined]
