@@ -29,11 +29,22 @@ class EvidenceIndex:
         self.passages = list(passages)
         self._vectors = vectors if vectors.size else np.zeros((0, 1), dtype=np.float32)
         self._lexical = LexicalIndex([p.text for p in self.passages])
+        self._last_query: tuple[str, np.ndarray] | None = None
         self._pages = np.asarray([p.page for p in self.passages], dtype=int)
         self._by_source: dict[str, np.ndarray] = {}
         for position, passage in enumerate(self.passages):
             self._by_source.setdefault(passage.source, []).append(position)  # type: ignore[arg-type]
         self._by_source = {k: np.asarray(v) for k, v in self._by_source.items()}
+
+    def _lexical_scores(self, query: str) -> np.ndarray:
+        """BM25 scores of the query over all passages, kept for the query searched last.
+
+        One claim is searched several times (per cited work, per cited page, across the
+        folder for a better source); scoring it once saves most of a warm run's BM25 time.
+        """
+        if self._last_query is None or self._last_query[0] != query:
+            self._last_query = (query, self._lexical.scores(query))
+        return self._last_query[1]
 
     def sources(self) -> list[str]:
         """Display paths of the sources that have at least one passage."""
@@ -62,7 +73,7 @@ class EvidenceIndex:
             candidates = candidates[np.isin(self._pages[candidates], sorted(pages))]
         if candidates.size == 0:
             return []
-        lexical_all = self._lexical.scores(query)
+        lexical_all = self._lexical_scores(query)
         top_lexical = float(lexical_all.max()) if lexical_all.size else 0.0
         lexical = lexical_all[candidates]
         scaled = lexical / top_lexical if top_lexical > 0 else np.zeros_like(lexical)

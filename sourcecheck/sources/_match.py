@@ -22,6 +22,7 @@ import re
 import unicodedata
 from collections.abc import Iterable
 from dataclasses import dataclass
+from functools import lru_cache
 
 from rapidfuzz import fuzz
 
@@ -51,8 +52,13 @@ _STOP = frozenset(
 )
 
 
+@lru_cache(maxsize=8192)
 def _fold(text: str) -> str:
-    """Lower case, accents removed, punctuation to spaces, spaces collapsed."""
+    """Lower case, accents removed, punctuation to spaces, spaces collapsed.
+
+    Cached: every reference is compared with every source's title lines, so the same
+    texts are folded again and again (it was most of a warm run's time on 40 sources).
+    """
     text = unicodedata.normalize("NFKD", text)
     text = "".join(ch for ch in text if not unicodedata.combining(ch))
     return " ".join(re.sub(r"[^\w\s]|_", " ", text.lower()).split())
