@@ -22,6 +22,7 @@ from sourcecheck.index.dense import Encoder, resolve_model_path
 from sourcecheck.index.search import EvidenceIndex
 from sourcecheck.judge.calibration import Calibration, load_calibration
 from sourcecheck.judge.locators import cited_pages, pdf_pages, prefers_located
+from sourcecheck.judge.quotes import check_quotes
 from sourcecheck.judge.verdict import (
     better_source_reason,
     judge,
@@ -31,6 +32,7 @@ from sourcecheck.judge.verdict import (
 )
 from sourcecheck.model import (
     Check,
+    Citation,
     Claim,
     ClaimResult,
     Draft,
@@ -155,78 +157,82 @@ def embed_claims(queries: list[str], encoder: Encoder, cache: Cache, stats: RunS
     return vectors
 
 
-def _check_citation(
-    claim_text: str,
-    vector: np.ndarray,
-    citation_index: int,
-    claim: Claim,
-    references: dict[str, Reference],
-    matches: dict[str, SourceMatch],
-    index: EvidenceIndex,
-    calibration: Calibration,
-    sources: dict[str, Source] | None = None,
-) -> Check:
-    """Judge one citation of a claim against its matched source.
+@dataclass
+class CitationChecker:
+    """Everything one citation's check reads, gathered once per run."""
 
-    A citation with a page locator is judged on the cited pages when they back the claim
-    about as well as the whole source does (:func:`~sourcecheck.judge.locators.prefers_located`);
-    otherwise on the whole source, with a ``page-mismatch`` reason naming where the
-    backing is. ``sources`` (by display path) gives the printed page numbers.
-    """
-    citation = claim.citations[citation_index]
-    if citation.key is None or citation.key not in references:
-        return unverifiable(
-            citation,
-            None,
-            None,
-            Reason("marker-unresolved", f"{citation.label} has no entry in the reference list"),
-        )
-    reference = references[citation.key]
-    match = matches.get(reference.key)
-    if match is None:
-        return unverifiable(
-            citation,
-            reference,
-            None,
-            Reason(
-                "source-missing",
-                f"no readable PDF in the sources folder matches reference {citation.label}",
-            ),
-        )
-    weight = calibration.dense_weight
-    hits = index.search(claim_text, vector, source=match.source, k=EVIDENCE_SEARCHED, dense_weight=weight)
-    source = sources.get(match.source) if sources else None
-    printed = source.printed_pages if source is not None else ()
-    cited = cited_pages(citation.locator)
-    mismatch: tuple[Hit, bool] | None = None  # (where the backing is, whether the cited page exists)
-    if cited and hits and source is not None:
-        wanted = pdf_pages(cited, printed, source.pages)
-        located = (
-            index.search(
-                claim_text, vector, source=match.source, k=EVIDENCE_SEARCHED, dense_weight=weight, pages=wanted
+    references: dict[str, Reference]
+    matches: dict[str, SourceMatch]
+    index: EvidenceIndex
+    calibration: Calibration
+    sources: dict[str, Source]
+
+    def check(self, claim: Claim, claim_text: str, vector: np.ndarray, citation: Citation) -> Check:
+        """Judge one citation of a claim against its matched source.
+
+        A citation with a page locator is judged on the cited pages when they back the
+        claim about as well as the whole source does
+        (:func:`~sourcecheck.judge.locators.prefers_located`); otherwise on the whole
+        source, with a ``page-mismatch`` reason naming where the backing is.
+        """
+        if citation.key is None or citation.key not in self.references:
+            return unverifiable(
+                citation,
+                None,
+                None,
+                Reason("marker-unresolved", f"{citation.label} has no entry in the reference list"),
             )
-            if wanted
-            else []
-        )
-        if prefers_located(located, hits):
-            hits = located
-        else:
-            mismatch = (hits[0], bool(wanted))
-    check = with_printed_pages(judge(claim_text, citation, reference, match.source, hits, calibration), printed)
-    if mismatch is not None and citation.locator:
-        page_reason = page_mismatch_reason(check, citation.locator, mismatch[0], printed, page_exists=mismatch[1])
-        if page_reason is not None:
-            check.reasons.append(page_reason)
-    # Another work this claim already cites is no "better source": the author cited both.
-    cited_here = {matches[c.key].source for c in claim.citations if c.key in matches}
-    alternatives = [
-        h for h in index.search(claim_text, vector, k=8, dense_weight=weight) if h.passage.source not in cited_here
-    ]
-    if alternatives:
-        reason = better_source_reason(check, alternatives[0], claim_text, calibration)
-        if reason is not None:
-            check.reasons.append(reason)
-    return check
+        reference = self.references[citation.key]
+        match = self.matches.get(reference.key)
+        if match is None:
+            return unverifiable(
+                citation,
+                reference,
+                None,
+                Reason("source-missing", f"no readable PDF in the sources folder matches reference {citation.label}"),
+            )
+        source = self.sources.get(match.source)
+        hits = self._search(claim_text, vector, match.source)
+        printed = source.printed_pages if source is not None else ()
+        mismatch: tuple[Hit, bool] | None = None  # (where the backing is, whether the cited page exists)
+        cited = cited_pages(citation.locator)
+        if cited and hits and source is not None:
+            wanted = pdf_pages(cited, printed, source.pages)
+            located = self._search(claim_text, vector, match.source, pages=wanted) if wanted else []
+            if prefers_located(located, hits):
+                hits = located
+            else:
+                mismatch = (hits[0], bool(wanted))
+        quotes = check_quotes(claim_text, page_texts(source)) if source is not None else []
+        check = judge(claim_text, citation, reference, match.source, hits, self.calibration, quotes=quotes)
+        check = with_printed_pages(check, printed)
+        if mismatch is not None and citation.locator:
+            reason = page_mismatch_reason(check, citation.locator, mismatch[0], printed, page_exists=mismatch[1])
+            if reason is not None:
+                check.reasons.append(reason)
+        better = self._better_source(check, claim, claim_text, vector)
+        if better is not None:
+            check.reasons.append(better)
+        return check
+
+    def _search(self, text: str, vector: np.ndarray, source: str, pages: set[int] | None = None) -> list[Hit]:
+        weight = self.calibration.dense_weight
+        return self.index.search(text, vector, source=source, k=EVIDENCE_SEARCHED, dense_weight=weight, pages=pages)
+
+    def _better_source(self, check: Check, claim: Claim, claim_text: str, vector: np.ndarray) -> Reason | None:
+        # Another work this claim already cites is no "better source": the author cited both.
+        cited_here = {self.matches[c.key].source for c in claim.citations if c.key in self.matches}
+        hits = self.index.search(claim_text, vector, k=8, dense_weight=self.calibration.dense_weight)
+        alternatives = [h for h in hits if h.passage.source not in cited_here]
+        return better_source_reason(check, alternatives[0], claim_text, self.calibration) if alternatives else None
+
+
+def page_texts(source: Source) -> list[tuple[int, str]]:
+    """Each page's evidence text (its passages joined), for checks that read a whole source."""
+    pages: dict[int, list[str]] = {}
+    for passage in source.passages:
+        pages.setdefault(passage.page, []).append(passage.text)
+    return [(page, " ".join(texts)) for page, texts in sorted(pages.items())]
 
 
 def unused_sources(sources: list[Source], draft: Draft, matches: dict[str, SourceMatch]) -> list[str]:
@@ -315,14 +321,16 @@ def judge_all(prepared: Prepared, draft_path: Path, sources_dir: Path) -> Report
     """Judge every citation of every claim and assemble the report."""
     calibration = load_calibration()
     draft = prepared.draft
-    references = {r.key: r for r in draft.references}
-    sources = {s.path: s for s in prepared.sources}
+    checker = CitationChecker(
+        references={r.key: r for r in draft.references},
+        matches=prepared.matches,
+        index=prepared.index,
+        calibration=calibration,
+        sources={s.path: s for s in prepared.sources},
+    )
     results = []
     for claim, query, vector in zip(draft.claims, prepared.queries, prepared.claim_vectors, strict=False):
-        checks = [
-            _check_citation(query, vector, i, claim, references, prepared.matches, prepared.index, calibration, sources)
-            for i in range(len(claim.citations))
-        ]
+        checks = [checker.check(claim, query, vector, citation) for citation in claim.citations]
         results.append(ClaimResult(claim=claim, checks=checks))
     cache_problems = [Problem(str(prepared.cache.root), w) for w in prepared.cache.warnings]
     return Report(

@@ -5,8 +5,10 @@ Order of the rules (each stated in the README):
 2. nothing in the cited source resembles the claim (the topical score, which ignores the
    number checks, is below the adrift threshold) -> ``adrift``;
 3. the best passage gives another value for a number of the claim -> ``conflict``;
-4. the backing score reaches the anchored threshold and every number is found -> ``anchored``;
-5. otherwise -> ``loose`` (a number is absent, or the passage only partly says the claim).
+4. the backing score reaches the anchored threshold, every number is found and every
+   quotation is verbatim -> ``anchored``;
+5. otherwise -> ``loose`` (a number is absent, a quotation drifted, or the passage only
+   partly says the claim).
 """
 
 from __future__ import annotations
@@ -17,6 +19,7 @@ from dataclasses import replace
 from sourcecheck.judge.calibration import Calibration
 from sourcecheck.judge.features import Features, features_of
 from sourcecheck.judge.locators import page_label
+from sourcecheck.judge.quotes import QuoteFinding, drift_message
 from sourcecheck.model import Band, Check, Citation, Evidence, Hit, Reason, Reference
 
 EVIDENCE_SHOWN = 2
@@ -50,8 +53,14 @@ def judge(
     source: str,
     hits: list[Hit],
     calibration: Calibration,
+    quotes: Sequence[QuoteFinding] = (),
 ) -> Check:
-    """Band, score, reasons and evidence for ``claim`` against the hits of its cited source."""
+    """Band, score, reasons and evidence for ``claim`` against the hits of its cited source.
+
+    ``quotes`` are the claim's quotations checked against the whole cited source
+    (:func:`sourcecheck.judge.quotes.check_quotes`); one that is not verbatim keeps the
+    check from ``anchored``.
+    """
     if not hits:
         return unverifiable(
             citation,
@@ -73,44 +82,38 @@ def judge(
         for h in hits[:EVIDENCE_SHOWN]
     ]
     match_words = f"similarity {features.dense:.2f}, {features.coverage:.0%} of the claim's content words"
-    reasons: list[Reason] = []
+    conflicts = [
+        Reason(
+            "number-mismatch",
+            f"claim says {f.claim.text}, source says {f.counterpart.text} ({_page(best)})",
+        )
+        for f in features.numbers
+        if f.counterpart is not None
+    ]
+    gaps = [
+        Reason(
+            "number-absent",
+            f"claim says {f.claim.text}; the cited source's closest passages ({_page(best)}) do not",
+        )
+        for f in features.numbers
+        if f.counterpart is None
+    ]
+    gaps += [Reason("quote-drift", drift_message(q)) for q in quotes if not q.verbatim]
     if topical < calibration.adrift_below:
         band = Band.ADRIFT
-        reasons.append(
-            Reason(
-                "no-match",
-                f"nothing in {source} resembles the claim (closest: {_page(best)}, {match_words})",
-            )
-        )
-    elif features.number_different:
-        band = Band.CONFLICT
-        for finding in features.numbers:
-            if finding.counterpart is not None:
-                reasons.append(
-                    Reason(
-                        "number-mismatch",
-                        f"claim says {finding.claim.text}, source says {finding.counterpart.text} ({_page(best)})",
-                    )
-                )
-    elif score >= calibration.anchored_at and not features.number_absent:
-        band = Band.ANCHORED
-        reasons.append(Reason("close-match", f"{_page(best)} states the claim ({match_words})"))
+        reasons = [
+            Reason("no-match", f"nothing in {source} resembles the claim (closest: {_page(best)}, {match_words})"),
+            *[r for r in gaps if r.code == "quote-drift"],
+        ]
+    elif conflicts:
+        band, reasons = Band.CONFLICT, [*conflicts, *gaps]
+    elif score >= calibration.anchored_at and not gaps:
+        band, reasons = Band.ANCHORED, [Reason("close-match", f"{_page(best)} states the claim ({match_words})")]
     else:
         band = Band.LOOSE
-        for finding in features.numbers:
-            reasons.append(
-                Reason(
-                    "number-absent",
-                    f"claim says {finding.claim.text}; the cited source's closest passages ({_page(best)}) do not",
-                )
-            )
-        if not features.numbers:
-            reasons.append(
-                Reason(
-                    "partial-match",
-                    f"{_page(best)} is related but does not fully state the claim ({match_words})",
-                )
-            )
+        reasons = gaps or [
+            Reason("partial-match", f"{_page(best)} is related but does not fully state the claim ({match_words})")
+        ]
     return Check(
         citation=citation,
         reference=reference,
