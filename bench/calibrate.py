@@ -212,8 +212,7 @@ def main() -> int:
     provisional = Calibration(tuple(weights), bias, 0.5, 0.5, "fit")
 
     def topical(pair: Pair) -> float:
-        f = features(pair)
-        return provisional.score(Features(f.dense, f.coverage, ()))
+        return provisional.score(features(pair).topical())
 
     topical_fit = np.array([topical(p) for p in fit])
     related_fit = np.array([p.label != "UNRELATED" for p in fit])

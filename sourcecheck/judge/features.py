@@ -6,12 +6,17 @@ exactly the same numbers from the same hits.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
+from sourcecheck.judge.cues import CueFinding, compare
 from sourcecheck.judge.numbers import NumberFinding, unsupported_numbers
 from sourcecheck.model import Hit
 
-FEATURE_NAMES = ("dense", "coverage", "number_absent", "number_different")
+FEATURE_NAMES = ("dense", "coverage", "number_absent", "number_different", "conflict_cue", "weak_cue")
+
+#: Cue codes that make a passage say the opposite of the claim, and those that make it say less.
+CONFLICT_CUES = frozenset({"negation", "direction-flip"})
+WEAK_CUES = frozenset({"overstated", "scope-wider"})
 
 
 @dataclass(frozen=True)
@@ -21,6 +26,7 @@ class Features:
     dense: float
     coverage: float
     numbers: tuple[NumberFinding, ...]
+    cues: tuple[CueFinding, ...] = ()
 
     @property
     def number_absent(self) -> bool:
@@ -30,9 +36,28 @@ class Features:
     def number_different(self) -> bool:
         return any(f.counterpart is not None for f in self.numbers)
 
+    @property
+    def conflict_cues(self) -> list[CueFinding]:
+        return [c for c in self.cues if c.code in CONFLICT_CUES]
+
+    @property
+    def weak_cues(self) -> list[CueFinding]:
+        return [c for c in self.cues if c.code in WEAK_CUES]
+
+    def topical(self) -> Features:
+        """The same evidence with the number and wording checks left out: is it about the claim?"""
+        return replace(self, numbers=(), cues=())
+
     def vector(self) -> list[float]:
         """The features in FEATURE_NAMES order, as the fitted model expects them."""
-        return [self.dense, self.coverage, float(self.number_absent), float(self.number_different)]
+        return [
+            self.dense,
+            self.coverage,
+            float(self.number_absent),
+            float(self.number_different),
+            float(bool(self.conflict_cues)),
+            float(bool(self.weak_cues)),
+        ]
 
 
 def features_of(claim: str, hits: list[Hit]) -> Features:
@@ -43,4 +68,5 @@ def features_of(claim: str, hits: list[Hit]) -> Features:
         dense=max(h.dense for h in hits),
         coverage=max(h.coverage for h in hits),
         numbers=tuple(findings),
+        cues=tuple(compare(claim, best.passage.text)),
     )

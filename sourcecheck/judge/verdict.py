@@ -4,11 +4,12 @@ Order of the rules (each stated in the README):
 1. no reference entry, no matched file, or an unreadable file -> ``unverifiable``;
 2. nothing in the cited source resembles the claim (the topical score, which ignores the
    number checks, is below the adrift threshold) -> ``adrift``;
-3. the best passage gives another value for a number of the claim -> ``conflict``;
-4. the backing score reaches the anchored threshold, every number is found and every
-   quotation is verbatim -> ``anchored``;
-5. otherwise -> ``loose`` (a number is absent, a quotation drifted, or the passage only
-   partly says the claim).
+3. the best passage gives another value for a number of the claim, or negates it, or
+   states the opposite direction -> ``conflict``;
+4. the backing score reaches the anchored threshold, every number is found, every
+   quotation is verbatim, and the claim neither overstates the source's certainty nor
+   widens its scope -> ``anchored``;
+5. otherwise -> ``loose`` (one of those gaps, or the passage only partly says the claim).
 """
 
 from __future__ import annotations
@@ -42,8 +43,8 @@ def unverifiable(citation: Citation, reference: Reference | None, source: str | 
 
 
 def topical_score(calibration: Calibration, features: Features) -> float:
-    """The backing score with the number checks left out: is the passage about the claim?"""
-    return calibration.score(replace(features, numbers=()))
+    """The backing score with the number and wording checks left out: is the passage about the claim?"""
+    return calibration.score(features.topical())
 
 
 def judge(
@@ -89,7 +90,7 @@ def judge(
         )
         for f in features.numbers
         if f.counterpart is not None
-    ]
+    ] + [Reason(c.code, f"{c.message} ({_page(best)})") for c in features.conflict_cues]
     gaps = [
         Reason(
             "number-absent",
@@ -98,6 +99,7 @@ def judge(
         for f in features.numbers
         if f.counterpart is None
     ]
+    gaps += [Reason(c.code, f"{c.message} ({_page(best)})") for c in features.weak_cues]
     gaps += [Reason("quote-drift", drift_message(q)) for q in quotes if not q.verbatim]
     if topical < calibration.adrift_below:
         band = Band.ADRIFT

@@ -6,7 +6,9 @@ from sourcecheck.judge.verdict import better_source_reason, judge, page_mismatch
 from sourcecheck.model import Band, Citation, Hit, Passage
 
 # A transparent calibration for the rules: score rises with similarity and coverage.
-CAL = Calibration(weights=(10.0, 4.0, -1.5, -3.0), bias=-8.0, anchored_at=0.6, adrift_below=0.2, provenance="test")
+CAL = Calibration(
+    weights=(10.0, 4.0, -1.5, -3.0, -3.0, -1.5), bias=-8.0, anchored_at=0.6, adrift_below=0.2, provenance="test"
+)
 CITE = Citation(marker="[1]", label="[1]", key="1")
 
 
@@ -97,3 +99,19 @@ def test_evidence_gets_the_printed_page_of_its_pdf_page() -> None:
     assert [(e.page, e.printed_page) for e in check.evidence] == [(2, "306"), (3, None)]
     bare = with_printed_pages(judge("Heron nests rose by 18%.", CITE, None, "a.pdf", hits, CAL), ())
     assert [e.printed_page for e in bare.evidence] == [None, None]
+
+
+def test_negated_finding_is_a_conflict() -> None:
+    # Negation cues after the BioScope guidelines (Vincze et al., 2008; from memory): "did not".
+    hits = [_hit("Scraping did not increase nest density on the heath plots.", 0.93, 0.9)]
+    check = judge("Scraping increased nest density on the heath plots.", CITE, None, "a.pdf", hits, CAL)
+    assert check.band is Band.CONFLICT
+    assert "negation" in [r.code for r in check.reasons]
+
+
+def test_hedged_source_makes_an_assertive_claim_loose() -> None:
+    # Hedges after Hyland (1998) and BioScope (from memory): "may", "suggests".
+    hits = [_hit("Warm soil may advance the emergence of heath bees.", 0.95, 1.0)]
+    check = judge("Warm soil proves to advance the emergence of heath bees.", CITE, None, "a.pdf", hits, CAL)
+    assert check.band is Band.LOOSE
+    assert "overstated" in [r.code for r in check.reasons]
