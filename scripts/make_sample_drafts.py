@@ -242,7 +242,11 @@ SECTIONS: tuple[tuple[str, tuple[Paragraph, ...]], ...] = (
                 cite("[1]", 1),
                 ". Those surveys also found that only 23% of nest entrances lay on north-facing slopes ",
                 cite("[1]", 1),
+                ". Scrapes beside footpaths held more nests than scrapes far from paths ",
+                cite("[1]", 1),
                 ". Nesting females avoided soils whose penetration resistance exceeded 2.5 MPa ",
+                cite("[2]", 2),
+                ". Nesting females also preferred scrapes close to flowering heather over scrapes further away ",
                 cite("[2]", 2),
                 ".",
             ),
@@ -250,8 +254,12 @@ SECTIONS: tuple[tuple[str, tuple[Paragraph, ...]], ...] = (
                 "Floral species richness along the transects rose steadily with time since restoration, by about "
                 "40% per decade ",
                 cite("[3]", 3),
+                ". Heather flowered later on north-facing transects than on south-facing transects ",
+                cite("[3]", 3),
                 ". Brood cells in dense nest aggregations were attacked by cleptoparasitic bees more often than "
                 "those in sparse aggregations ",
+                cite("[4]", 4),
+                '. Bee flies "hovered over open burrows and flicked their eggs into the entrance" ',
                 cite("[4]", 4),
                 ". Emergence started earlier on south-facing plots, where the soil warmed faster in March ",
                 cite("[5]", 5),
@@ -266,8 +274,10 @@ SECTIONS: tuple[tuple[str, tuple[Paragraph, ...]], ...] = (
         (
             (
                 "Taken together, these results suggest that restoration should create bare ground on warm, loose "
-                "soils rather than on compacted tracks. Grazing by ponies reduced the height of gorse stands by "
-                "roughly a third within two winters ",
+                "soils rather than on compacted tracks. Warm soil in early spring causes females to start building "
+                "nests earlier ",
+                cite("[5]", 5),
+                ". Grazing by ponies reduced the height of gorse stands by roughly a third within two winters ",
                 cite("[5]", 5),
                 ". A comparable avoidance of shaded ground by nesting bees has been reported from inland dune systems ",
                 cite("[9]", 9),

@@ -16,7 +16,10 @@ must cope with each of these:
 * PDF metadata (title, author) on most files, none on one, so it must be matched by the
   title printed on its first page; a DOI printed on the first page of some;
 * two files in subfolders, to show that discovery is recursive;
-* one file that no reference of the draft points at.
+* one file that no reference of the draft points at;
+* five sentences that a claim of the draft restates closely but gets wrong in one way
+  (a flipped direction, a dropped negation, a dropped limit to one site, a changed word
+  in a quotation, a dropped hedge), each in a paragraph of its own and free of numbers.
 
 ``sample_manuscript/PLANTED.md`` lists which sentence of which file backs which claim.
 If you change a sentence here, update that table.
@@ -380,6 +383,11 @@ NEST_SURVEY = Article(
             "(r = 0.61, n = 144 quadrats). Quadrats with more than 30% moss cover contained "
             "almost no nests."
         ),
+        Para(
+            # claim: footpath scrapes (the draft says "more"; direction-flip)
+            "Scrapes beside footpaths held fewer nests than scrapes far from paths. Walkers "
+            "trample the soil surface there and fill in burrow entrances."
+        ),
         Heading("4 Discussion"),
         Para(
             "Scraping clearly created nesting habitat that the bees used within two seasons. "
@@ -479,6 +487,12 @@ SOIL_STRENGTH = Article(
             "resistance and low moisture. Sites on finer soils may need additional measures, "
             "such as loosening the surface after scraping."
         ),
+        Para(
+            # claim: nearness to flowering heather (the draft asserts it; negation)
+            "Nesting females did not prefer scrapes close to flowering heather over scrapes "
+            "further away. Distance was measured from each nest to the nearest flowering "
+            "heather plant."
+        ),
     ),
     references=(
         "I. Marrenby, K. Solvaag, P. Trendle, Nest aggregations of ground-nesting bees on "
@@ -539,6 +553,13 @@ FLORAL_TRANSECTS = Article(
             "sites were dominated by short-lived pioneer herbs. Yellow composites were common "
             "on young sites but declined as the heather canopy closed. Legumes, which matter to "
             "long-tongued bees, were scarce everywhere."
+        ),
+        Para(
+            # claim: later flowering on north-facing transects (the draft drops "at a
+            # single site"; scope-wider)
+            "At a single site, heather flowered later on north-facing transects than on "
+            "south-facing transects. Elsewhere, such transects were too rare to "
+            "compare."
         ),
         Para(
             "Median richness was 6 species per transect on young sites, 9 on middle-aged sites "
@@ -641,6 +662,12 @@ PARASITES = Article(
             "Testing this idea requires experiments in which scrape size and number are varied "
             "independently."
         ),
+        Para(
+            # claim: the draft quotes this sentence with "into" for "towards" (quote-drift)
+            "Bee flies hovered over open burrows and flicked their eggs towards the entrance "
+            "from the air. They were active mostly in the early afternoon, while host females "
+            "were out foraging."
+        ),
     ),
     references=(
         "A. Wyncombe, Host records of cleptoparasitic bees on heath, Apoidea Field Notes 4 (2013) 17–21.",
@@ -717,6 +744,11 @@ EMERGENCE = Article(
             "Because males emerge first, a late frost would strike males before most females "
             "are active. Plots of varied aspect may buffer a population against such events by "
             "spreading emergence over a longer period."
+        ),
+        Para(
+            # claim: the draft drops the hedge, "causes" for "may cause" (overstated)
+            "Warm soil in early spring may cause females to start building nests earlier. "
+            "Marked females were watched at their burrows on sunny mornings after release."
         ),
         Para(
             "The traps caught bees of at least nine species, but most individuals belonged to "
