@@ -117,13 +117,15 @@ def read_sources(
 def embed_sources(
     sources: list[Source], encoder: Encoder, cache: Cache, progress: ProgressHook, stats: RunStats
 ) -> np.ndarray:
-    """One unit vector per passage, in source order; each source embedded once, ever."""
+    """One unit vector per passage, in source order; each set of passages embedded once, ever."""
     blocks = []
     total = sum(len(s.passages) for s in sources)
     done = 0
     for source in sources:
-        key = f"{source.sha256}-{EXTRACTOR_VERSION}-{encoder.fingerprint}"
         texts = [p.text for p in source.passages]
+        # Keyed by the passages' own text and the model, not the extractor version: a new
+        # extractor that leaves a file's passages unchanged costs no embedding.
+        key = text_key(encoder.fingerprint, *texts)
         vectors = cache.load_vectors("passages", key, len(texts))
         if vectors is None:
             vectors = encoder.encode(texts) if texts else np.zeros((0, 384), dtype=np.float32)
