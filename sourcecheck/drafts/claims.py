@@ -8,7 +8,7 @@ to pysbd, whose rules keep "et al." and "Fig. 2" inside a sentence.
 from __future__ import annotations
 
 import re
-from collections.abc import Iterable
+from collections.abc import Callable, Iterable
 from dataclasses import dataclass
 from functools import lru_cache
 
@@ -93,12 +93,27 @@ def sentences_with_markers(text: str) -> list[Sentence]:
     return [Sentence(s, e, tuple(markers)) for (s, e), markers in zip(spans, owned, strict=True) if e > s]
 
 
-def extract_claims(blocks: Iterable[Block], resolver: Resolver, first_id: int = 1) -> list[Claim]:
-    """Claims of ``blocks`` in order, numbered "c1", "c2", ... from ``first_id``."""
+#: Citations of one sentence of a block; lets a reader add marker kinds of its own (Pandoc keys).
+CitationsOf = Callable[[Block, "Sentence"], tuple[Citation, ...]]
+
+
+def extract_claims(
+    blocks: Iterable[Block], resolver: Resolver, first_id: int = 1, citations_of: CitationsOf | None = None
+) -> list[Claim]:
+    """Claims of ``blocks`` in order, numbered "c1", "c2", ... from ``first_id``.
+
+    ``citations_of`` gives a sentence's citations; by default its shared markers, resolved
+    by ``resolver``.
+    """
+    if citations_of is None:
+
+        def citations_of(block: Block, sentence: Sentence) -> tuple[Citation, ...]:
+            return _citations(sentence.markers, resolver)
+
     claims: list[Claim] = []
     for block in blocks:
         for sentence in sentences_with_markers(block.text):
-            citations = _citations(sentence.markers, resolver)
+            citations = citations_of(block, sentence)
             if not citations:
                 continue
             claims.append(

@@ -15,7 +15,7 @@ from dataclasses import dataclass, field
 from pathlib import Path, PurePath
 
 from sourcecheck.drafts.bibliography import load_bibliography
-from sourcecheck.drafts.claims import Block, readable, sentences_with_markers
+from sourcecheck.drafts.claims import Block, Sentence, extract_claims
 from sourcecheck.drafts.markers import Marker, mask_markup
 from sourcecheck.drafts.resolve import Resolver
 from sourcecheck.model import Citation, Claim, Problem, Reference
@@ -217,24 +217,15 @@ def extract_keyed_claims(blocks: Iterable[Block], resolver: Resolver, keys: set[
     it reuses; a key citation resolves when its key is in ``keys``. An ordinary marker
     that overlaps a key citation ("[@a, 33]" holds "[33]"-like text) is part of it.
     """
-    claims: list[Claim] = []
-    for block in blocks:
-        keyed = find_key_citations(block.text)
-        for sentence in sentences_with_markers(block.text):
-            mine = [k for k in keyed if sentence.start <= k.start < sentence.end]
-            others = [m for m in sentence.markers if not any(m.start < k.end and k.start < m.end for k in keyed)]
-            citations = _citations(sorted([*mine, *others], key=lambda m: m.start), resolver, keys)
-            if not citations:
-                continue
-            claims.append(
-                Claim(
-                    id=f"c{first_id + len(claims)}",
-                    text=readable(block.text[sentence.start : sentence.end]),
-                    line=block.line + block.text.count("\n", 0, sentence.start),
-                    citations=citations,
-                )
-            )
-    return claims
+    keyed_by_block: dict[int, list[KeyMarker]] = {}
+
+    def citations_of(block: Block, sentence: Sentence) -> tuple[Citation, ...]:
+        keyed = keyed_by_block.setdefault(id(block), find_key_citations(block.text))
+        mine = [k for k in keyed if sentence.start <= k.start < sentence.end]
+        others = [m for m in sentence.markers if not any(m.start < k.end and k.start < m.end for k in keyed)]
+        return _citations(sorted([*mine, *others], key=lambda m: m.start), resolver, keys)
+
+    return extract_claims(list(blocks), resolver, first_id, citations_of)
 
 
 def _citations(markers: Sequence[Marker | KeyMarker], resolver: Resolver, keys: set[str]) -> tuple[Citation, ...]:
