@@ -22,12 +22,13 @@ from sourcecheck.index.dense import Encoder, resolve_model_path
 from sourcecheck.index.search import EvidenceIndex
 from sourcecheck.judge.calibration import Calibration, load_calibration
 from sourcecheck.judge.locators import cited_pages, pdf_pages, prefers_located
-from sourcecheck.judge.quotes import check_quotes
+from sourcecheck.judge.quotes import check_quotes, quotations
 from sourcecheck.judge.verdict import (
     better_source_reason,
     judge,
     page_mismatch_reason,
     unverifiable,
+    wants_better_source,
     with_printed_pages,
 )
 from sourcecheck.model import (
@@ -205,7 +206,7 @@ class CitationChecker:
                 hits = located
             else:
                 mismatch = (hits[0], bool(wanted))
-        quotes = check_quotes(claim_text, page_texts(source)) if source is not None else []
+        quotes = check_quotes(claim_text, page_texts(source)) if source is not None and quotations(claim_text) else []
         check = judge(claim_text, citation, reference, match.source, hits, self.calibration, quotes=quotes)
         check = with_printed_pages(check, printed)
         if mismatch is not None and citation.locator:
@@ -222,6 +223,8 @@ class CitationChecker:
         return self.index.search(text, vector, source=source, k=EVIDENCE_SEARCHED, dense_weight=weight, pages=pages)
 
     def _better_source(self, check: Check, claim: Claim, claim_text: str, vector: np.ndarray) -> Reason | None:
+        if not wants_better_source(check):
+            return None  # the folder-wide search is skipped for every backed check
         # Another work this claim already cites is no "better source": the author cited both.
         cited_here = {self.matches[c.key].source for c in claim.citations if c.key in self.matches}
         hits = self.index.search(claim_text, vector, k=8, dense_weight=self.calibration.dense_weight)

@@ -127,9 +127,14 @@ def judge(
     )
 
 
+def wants_better_source(check: Check) -> bool:
+    """Only a check that its cited source does not back is worth a search elsewhere."""
+    return check.band in (Band.ADRIFT, Band.LOOSE)
+
+
 def better_source_reason(check: Check, alternative: Hit, claim: str, calibration: Calibration) -> Reason | None:
     """A ``better-source`` reason when another file backs the claim and the cited one does not."""
-    if check.band not in (Band.ADRIFT, Band.LOOSE):
+    if not wants_better_source(check):
         return None
     other = calibration.score(features_of(claim, [alternative]))
     if other < calibration.anchored_at or other <= check.score:

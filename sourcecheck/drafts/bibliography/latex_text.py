@@ -15,38 +15,15 @@ from functools import lru_cache
 
 from bibtexparser.latexenc import latex_to_unicode
 
+from sourcecheck.drafts.latex_commands import SYMBOLS
+
 # Control words that bibtexparser turns into letters or accents: left for it.
 _ACCENT_WORDS = frozenset("c v u H k r d b t".split())  # noqa: SIM905
 _LETTER_WORDS = frozenset("l L o O ss ae AE oe OE aa AA i j".split())  # noqa: SIM905
-# Control words that print a symbol or a word.
+# Control words that print a symbol or a word: the LaTeX reader's table (one table for
+# both readers), plus the math letters and biblatex delimiters that bibliographies hold.
 _SYMBOLS = {
-    "ldots": "…",
-    "dots": "…",
-    "textellipsis": "…",
-    "LaTeX": "LaTeX",
-    "LaTeXe": "LaTeX2e",
-    "TeX": "TeX",
-    "BibTeX": "BibTeX",
-    "textendash": "–",
-    "textemdash": "—",
-    "textquoteleft": "‘",
-    "textquoteright": "’",
-    "textquotedblleft": "“",
-    "textquotedblright": "”",
-    "textdegree": "°",
-    "textregistered": "®",
-    "texttrademark": "™",
-    "copyright": "©",
-    "textcopyright": "©",
-    "S": "§",
-    "P": "¶",
-    "textasciitilde": "~",
-    "textbackslash": "\\",
-    "textbar": "|",
-    "textless": "<",
-    "textgreater": ">",
-    "pounds": "£",
-    "euro": "€",
+    **SYMBOLS,
     "times": "×",
     "pm": "±",
     "alpha": "α",
