@@ -1,5 +1,9 @@
 """Numbers in claims against numbers in passages."""
 
+import math
+
+import pytest
+
 from sourcecheck.judge.numbers import quantities, same_value, unsupported_numbers
 
 
@@ -52,3 +56,232 @@ def test_a_number_is_found_whatever_word_follows_it() -> None:
     # "1,119 adult bees" and "1119 bees" are one figure; a percentage is only ever a percentage.
     assert unsupported_numbers("We marked 1,119 adult bees.", "In all 1119 bees were marked.", []) == []
     assert unsupported_numbers("We marked 23% of bees.", "We marked 23 bees.", []) != []
+
+
+# --- helpers for the new forms -----------------------------------------------------------
+
+
+def _findings(claim: str, passage: str) -> list[tuple[str, str | None]]:
+    """(claim text, counterpart text or None) for each claim number the passage lacks."""
+    found = unsupported_numbers(claim, passage, [])
+    return [(f.claim.text, f.counterpart.text if f.counterpart else None) for f in found]
+
+
+def _close(a: float, b: float) -> bool:
+    return math.isclose(a, b, rel_tol=1e-9, abs_tol=1e-15)
+
+
+# --- reading: each form with its value, kind and unit ------------------------------------
+
+
+@pytest.mark.parametrize(
+    ("text", "value", "kind", "unit"),
+    [
+        # SI Brochure (BIPM, 9th ed., 2019), section 5.4.3: value = number × unit, a space
+        # between them (from memory); the value is kept in SI base units (kg, m, s, mol, K).
+        ("a dose of 5 mg", 5e-6, "mass", "mg"),
+        ("a dose of 5mg", 5e-6, "mass", "mg"),
+        ("dosed at 5 mg/kg", 5e-6, "unit ratio", "mg/kg"),
+        ("dosed at 5 mg kg-1", 5e-6, "unit ratio", "mg kg-1"),
+        ("held 20 µg/mL", 0.02, "mass concentration", "µg/mL"),
+        ("glucose of 5.5 mmol/L", 5.5, "concentration", "mmol/L"),
+        ("in 0.5 M NaCl", 500.0, "concentration", "M"),
+        ("above 2.5 MPa", 2.5e6, "pressure", "MPa"),
+        ("kept at 37 °C", 310.15, "temperature", "°C"),
+        ("every 10 min", 600.0, "time", "min"),
+        ("over 6 days", 6 * 86400.0, "time", "days"),
+        ("in 2 m quadrats", 2.0, "length", "m"),
+        ("plots of 0.25 m²", 0.25, "area", "m²"),
+        # Percent and percentage points are their own kinds (common practice, no source).
+        ("rose by 18.4%", 18.4, "%", "%"),
+        ("rose by 3 percentage points", 3.0, "percentage point", "pp"),
+        ("rose by 3 pp", 3.0, "percentage point", "pp"),
+        ("a proportion of 0.45", 45.0, "%", "fraction"),
+        ("rose 2.5-fold", 2.5, "fold", "fold"),
+        ("rose 2.5 fold", 2.5, "fold", "fold"),
+        ("rose 2.5×", 2.5, "fold", "fold"),
+        ("rose 2.5x over", 2.5, "fold", "fold"),
+        ("rose twofold", 2.0, "fold", "fold"),
+    ],
+)
+def test_numbers_with_units_and_kinds(text: str, value: float, kind: str, unit: str) -> None:
+    found = _one(text)
+    assert _close(found.value, value) and found.kind == kind and found.unit == unit
+
+
+def test_statistics_are_named_by_what_precedes_them() -> None:
+    # APA Publication Manual, 7th ed., 6.43-6.46 statistical forms "OR = 1.8", "HR 0.7",
+    # "95% CI [1.2, 2.7]" (from memory); odds, hazard and risk ratios are different measures.
+    assert [(q.kind, q.value) for q in quantities("odds ratio 1.8; OR = 1.8; aOR 1.8")] == [("ratio:OR", 1.8)] * 3
+    assert _one("HR 0.7").kind == "ratio:HR" and _one("hazard ratio of 0.7").kind == "ratio:HR"
+    assert _one("RR 0.85").kind == _one("relative risk 0.85").kind == _one("risk ratio 0.85").kind == "ratio:RR"
+    three_to_one = _one("a sex ratio of 3:1")
+    assert (three_to_one.kind, three_to_one.value) == ("ratio", 3.0) and _one("3:1").kind == "ratio"
+    assert [(q.kind, q.value, q.high) for q in quantities("95% CI [1.2, 2.7]")] == [("%", 95.0, None), ("CI", 1.2, 2.7)]
+    assert _one("r = 0.61").kind == "stat:r"
+
+
+@pytest.mark.parametrize(
+    ("text", "value", "comparator", "decimals"),
+    [
+        ("p < 0.05", 0.05, "<", 2),
+        # APA 7th ed., 6.36: no zero before the decimal point of a p-value, "p = .003" (from memory).
+        ("P = .003", 0.003, "=", 3),
+        ("p<.001", 0.001, "<", 3),
+        ("p ≤ 0.01", 0.01, "≤", 2),
+        ("p <= 0.01", 0.01, "≤", 2),
+        ("a p-value of 0.03", 0.03, "=", 2),
+    ],
+)
+def test_p_values_keep_their_comparator(text: str, value: float, comparator: str, decimals: int) -> None:
+    found = _one(text)
+    assert (found.kind, found.value, found.comparator, found.decimals) == ("p-value", value, comparator, decimals)
+
+
+def test_sample_sizes() -> None:
+    assert [(q.kind, q.value) for q in quantities("(n = 48), N=48")] == [("n", 48.0), ("n", 48.0)]
+    assert _one("48 participants").kind == "participant"
+
+
+@pytest.mark.parametrize(
+    ("text", "value", "decimals"),
+    [
+        ("1.2 × 10^3", 1200.0, -2),  # two significant figures: rounded to the hundreds
+        ("1.2×10³", 1200.0, -2),
+        ("1.2 x 10-3", 1.2e-3, 4),
+        ("1.2e-3", 1.2e-3, 4),
+        ("1.2E3", 1200.0, -2),
+        ("10^-4", 1e-4, 4),
+        ("10⁻⁴", 1e-4, 4),
+    ],
+)
+def test_scientific_notation(text: str, value: float, decimals: int) -> None:
+    found = _one(text)
+    assert _close(found.value, value) and found.decimals == decimals
+
+
+def test_digit_groups_and_signs() -> None:
+    # SI Brochure (9th ed.), section 5.4.4: digits in groups of three, separated by a thin
+    # space (from memory); commas as separators are common English practice (no source).
+    assert _one("12\u2009000 nests").value == 12000.0 and _one("12\u202f000 nests").value == 12000.0
+    assert _one("12,000.5 nests").value == 12000.5 and _one("12,000.5 nests").decimals == 1
+    assert _one("changed by −0.3").value == -0.3 and _one("changed by -0.3").value == -0.3
+    assert [q.value for q in quantities("COVID-19 cases")] == []  # a name, not minus nineteen
+    assert [(q.value, q.high) for q in quantities("in 12-15 plots")] == [(12.0, 15.0)]  # a range, not −15
+
+
+def test_ranges_carry_their_unit_to_both_ends() -> None:
+    for text in ("12–15 mg", "12-15 mg", "12 to 15 mg", "between 12 and 15 mg", "12 mg–15 mg"):
+        found = _one(text)
+        assert (_close(found.value, 12e-6), _close(found.high, 15e-6), found.kind) == (True, True, "mass"), text
+    assert _one("between 20 and 30%").kind == "%" and _one("between 20 and 30%").high == 30.0
+    assert _one("rose from 12 to 15 nests").kind == "nest" and _one("rose from 12 to 15.").kind == ""
+
+
+def test_spread_is_kept_apart_from_the_value() -> None:
+    found = _one("4.2 ± 0.3 mg")
+    assert _close(found.value, 4.2e-6) and _close(found.spread, 0.3e-6) and found.kind == "mass"
+    assert _one("3.4 ± 1.2 nests per m²").kind == "nest"
+
+
+def test_labels_references_and_clock_times_stay_out() -> None:
+    assert quantities("see Fig. 2, Table 3, Section 4, Eq. 5 and pp. 201–205") == []
+    assert quantities("as reported [12] and [3, 7]") == []
+    assert quantities("between 09:00 and 12:00") == []
+
+
+def test_spelled_out_numbers_take_units_and_kinds() -> None:
+    assert (_one("five percent").kind, _one("five percent").value) == ("%", 5.0)
+    assert _one("six days").value == 6 * 86400.0
+    assert _one("a dozen nests").value == 12.0
+
+
+# --- matching: claim against passage --------------------------------------------------------
+
+
+def test_equal_after_unit_conversion_is_found_both_ways() -> None:
+    # 500 mg = 0.5 g (SI Brochure, 9th ed., Table 7: milli = 10⁻³; from memory).
+    assert _findings("a dose of 500 mg", "a dose of 0.5 g") == []
+    assert _findings("a dose of 0.5 g", "a dose of 500 mg") == []
+    assert _findings("a dose of 600 mg", "a dose of 0.5 g") == [("600 mg", "0.5 g")]
+    assert _findings("held 20 µg/mL", "held 20 mg/L") == []  # 1 µg/mL = 1 mg/L
+    assert _findings("5.5 mmol/L", "5.5 mM") == []
+    # K = °C + 273.15 (SI Brochure, 9th ed., section 2.3.1; from memory).
+    assert _findings("kept at 37 °C", "kept at 310.15 K") == []
+    assert _findings("kept at 37 °C", "kept at 37 K") == [("37 °C", "37 K")]
+
+
+def test_rounding_follows_significant_figures_of_scientific_notation() -> None:
+    # "1.2 × 10³" covers 1150 to 1250 (rounding to the written digit; common practice, no source).
+    assert _findings("about 1.2 × 10^3 cells", "1,180 cells") == []
+    assert _findings("about 1,200 cells", "1,180 cells") == [("1,200", "1,180")]
+    assert _findings("1.2e-3", "0.00118") == []
+
+
+def test_percent_fraction_points_and_folds_never_cross() -> None:
+    assert _findings("45% of nests", "a proportion of 0.45 of nests") == []
+    assert _findings("45% of nests", "0.45 of nests") == [("45%", None)]  # no proportion word: not a percentage
+    assert _findings("rose by 3 percentage points", "rose by 3%") == [("3 percentage points", None)]
+    assert _findings("rose by 3%", "rose by 3 percentage points") == [("3%", None)]
+    assert _findings("rose 2.5-fold", "rose by 2.5%") == [("2.5-fold", None)]
+    assert _findings("rose 2.5-fold", "rose 2.5×") == []
+    assert _findings("rose 2.5-fold", "rose 4-fold") == [("2.5-fold", "4-fold")]
+
+
+def test_named_ratios_match_only_their_own_name() -> None:
+    # Odds, hazard and risk ratios are different measures (APA 7th ed., Table 6.5; from memory).
+    assert _findings("OR 1.8", "odds ratio of 1.8") == []
+    assert _findings("OR 1.8", "HR 1.8") == [("OR 1.8", None)]
+    assert _findings("OR 1.8", "OR = 2.1") == [("OR 1.8", "OR = 2.1")]
+    assert _findings("a 3:1 ratio", "a ratio of 3:1") == []
+
+
+def test_a_claimed_bound_must_be_implied_by_the_source() -> None:
+    assert _findings("p < 0.05", "p = 0.03") == []
+    assert _findings("p < 0.05", "p < 0.01") == []
+    assert _findings("p < 0.05", "p < 0.05") == []
+    assert _findings("p ≤ 0.05", "p = 0.05") == []
+    assert _findings("p < 0.05", "p = 0.05") == [("p < 0.05", None)]  # may round from 0.049: no contradiction
+    assert _findings("p < 0.05", "p = 0.2") == [("p < 0.05", "p = 0.2")]
+    assert _findings("p < 0.01", "p < 0.05") == [("p < 0.01", None)]  # weaker statement: not a contradiction
+    assert _findings("p = 0.03", "p < 0.05") == [("p = 0.03", None)]  # a bound states no value
+    assert _findings("p = 0.03", "p < 0.01") == [("p = 0.03", "p < 0.01")]
+    assert _findings("P = .003", "p = 0.003") == []
+    assert _findings("p > 0.1", "p = 0.4") == []
+
+
+def test_ranges_match_ranges_and_ends() -> None:
+    assert _findings("doses of 12–15 mg", "between 12 and 15 mg") == []
+    assert _findings("doses of 12–15 mg", "12 mg and 15 mg") == []  # both ends stated
+    assert _findings("doses of 12–16 mg", "12–15 mg") == [("12–16 mg", "12–15 mg")]
+    assert _findings("a dose of 12 mg", "doses of 12–15 mg") == []  # a stated end
+    assert _findings("a dose of 13 mg", "doses of 12–15 mg") == [("13 mg", None)]  # inside: not stated
+    assert _findings("a dose of 16 mg", "doses of 12–15 mg") == [("16 mg", "12–15 mg")]
+
+
+def test_spread_must_agree_when_both_state_one() -> None:
+    assert _findings("held 4.2 mg", "held 4.2 ± 0.3 mg") == []
+    assert _findings("held 4.2 ± 0.3 mg", "held 4.2 ± 0.3 mg") == []
+    assert _findings("held 4.2 ± 0.3 mg", "held 4.2 ± 0.5 mg") == [("4.2 ± 0.3 mg", "4.2 ± 0.5 mg")]
+
+
+def test_sample_size_matches_a_count_of_the_same_value() -> None:
+    assert _findings("(n = 48)", "48 participants took part") == []
+    assert _findings("48 participants", "(n = 48)") == []
+    assert _findings("(n = 48)", "(n = 52)") == [("n = 48", "n = 52")]
+
+
+def test_a_unit_written_once_for_a_list_applies_to_each_number() -> None:
+    assert _findings("a dose of 250 mg/kg", "doses of 250 and 500 mg/kg") == []
+    assert _findings("a rise of 20%", "rises of 10, 20 or 30%") == []
+    assert [q.unit for q in quantities("5 sites and 10 mg")] == ["", "mg"]  # a word between: no list
+
+
+def test_a_sign_counts_only_when_both_numbers_carry_one() -> None:
+    assert _findings("fell by 0.3", "a change of −0.3") == []
+    assert _findings("a change of +0.3", "a change of −0.3") == [("+0.3", None)]
+
+
+def test_a_bare_word_is_not_a_unit() -> None:
+    assert _findings("5 m apart", "the 5 most common") == [("5 m", None)]
+    assert _one("the 5 most common").unit == ""
