@@ -96,12 +96,22 @@ class Passage:
 
     ``source`` is the source's display path; ``page`` is the 1-based page of the PDF;
     ``ordinal`` is the passage's position within its source, so neighbours can be found.
+    ``section`` is the role of the section it stands in (one of SECTION_ROLES, "" when the
+    source names no sections) and ``place`` where in that section it falls, 0.0 first to
+    1.0 last: a claim is backed by a work's own findings, which papers put in their
+    results and conclusions, rarely in the background or the methods.
     """
 
     source: str
     page: int
     text: str
     ordinal: int
+    section: str = ""
+    place: float = 0.0
+
+
+#: The roles a source's sections are sorted into (see sources/_sections.py for the headings).
+SECTION_ROLES = ("abstract", "background", "methods", "results", "discussion", "conclusions", "back-matter")
 
 
 @dataclass

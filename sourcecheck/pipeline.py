@@ -19,6 +19,7 @@ from sourcecheck.drafts import ReadOptions, read_draft
 from sourcecheck.errors import SourcesUnreadable
 from sourcecheck.index.cache import Cache, default_cache_dir, text_key
 from sourcecheck.index.dense import Encoder, resolve_model_path
+from sourcecheck.index.ranking import Ranker
 from sourcecheck.index.search import EvidenceIndex
 from sourcecheck.judge.calibration import Calibration, load_calibration
 from sourcecheck.judge.locators import cited_pages, pdf_pages, prefers_located
@@ -195,13 +196,13 @@ class CitationChecker:
                 Reason("source-missing", f"no readable PDF in the sources folder matches reference {citation.label}"),
             )
         source = self.sources.get(match.source)
-        hits = self._search(claim_text, vector, match.source)
+        hits = self.evidence_for(claim_text, vector, match.source)
         printed = source.printed_pages if source is not None else ()
         mismatch: tuple[Hit, bool] | None = None  # (where the backing is, whether the cited page exists)
         cited = cited_pages(citation.locator)
         if cited and hits and source is not None:
             wanted = pdf_pages(cited, printed, source.pages)
-            located = self._search(claim_text, vector, match.source, pages=wanted) if wanted else []
+            located = self.evidence_for(claim_text, vector, match.source, pages=wanted) if wanted else []
             if prefers_located(located, hits):
                 hits = located
             else:
@@ -218,16 +219,27 @@ class CitationChecker:
             check.reasons.append(better)
         return check
 
-    def _search(self, text: str, vector: np.ndarray, source: str, pages: set[int] | None = None) -> list[Hit]:
+    def __post_init__(self) -> None:
+        self.ranker = Ranker(self.calibration.ranking, self.calibration.ranking_margin)
+
+    def evidence_for(
+        self,
+        text: str,
+        vector: np.ndarray,
+        source: str | None,
+        pages: set[int] | None = None,
+        k: int = EVIDENCE_SEARCHED,
+    ) -> list[Hit]:
+        """The best ``k`` passages for a claim, within ``source`` (and ``pages``) or folder-wide."""
         weight = self.calibration.dense_weight
-        return self.index.search(text, vector, source=source, k=EVIDENCE_SEARCHED, dense_weight=weight, pages=pages)
+        return self.index.search(text, vector, source=source, k=k, dense_weight=weight, pages=pages, ranker=self.ranker)
 
     def _better_source(self, check: Check, claim: Claim, claim_text: str, vector: np.ndarray) -> Reason | None:
         if not wants_better_source(check):
             return None  # the folder-wide search is skipped for every backed check
         # Another work this claim already cites is no "better source": the author cited both.
         cited_here = {self.matches[c.key].source for c in claim.citations if c.key in self.matches}
-        hits = self.index.search(claim_text, vector, k=8, dense_weight=self.calibration.dense_weight)
+        hits = self.evidence_for(claim_text, vector, None, k=8)
         alternatives = [h for h in hits if h.passage.source not in cited_here]
         return better_source_reason(check, alternatives[0], claim_text, self.calibration) if alternatives else None
 
@@ -322,17 +334,21 @@ def run(draft_path: Path, sources_dir: Path, **options: Unpack[RunOptions]) -> R
     return judge_all(prepare(draft_path, sources_dir, **options), draft_path, sources_dir)
 
 
-def judge_all(prepared: Prepared, draft_path: Path, sources_dir: Path) -> Report:
-    """Judge every citation of every claim and assemble the report."""
-    calibration = load_calibration()
-    draft = prepared.draft
-    checker = CitationChecker(
-        references={r.key: r for r in draft.references},
+def make_checker(prepared: Prepared) -> CitationChecker:
+    """The citation checker for a prepared run, with the shipped calibration."""
+    return CitationChecker(
+        references={r.key: r for r in prepared.draft.references},
         matches=prepared.matches,
         index=prepared.index,
-        calibration=calibration,
+        calibration=load_calibration(),
         sources={s.path: s for s in prepared.sources},
     )
+
+
+def judge_all(prepared: Prepared, draft_path: Path, sources_dir: Path) -> Report:
+    """Judge every citation of every claim and assemble the report."""
+    draft = prepared.draft
+    checker = make_checker(prepared)
     results = []
     for claim, query, vector in zip(draft.claims, prepared.queries, prepared.claim_vectors, strict=False):
         checks = [checker.check(claim, query, vector, citation) for citation in claim.citations]

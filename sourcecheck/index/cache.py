@@ -83,6 +83,8 @@ class Cache:
                     page=int(p["page"]),
                     text=str(p["text"]),
                     ordinal=int(p["ordinal"]),
+                    section=str(p.get("section", "")),
+                    place=float(p.get("place", 0.0)),
                 )
                 for p in data["passages"]
             ]

@@ -13,11 +13,16 @@ from collections.abc import Sequence
 import numpy as np
 
 from sourcecheck.index.lexical import LexicalIndex
+from sourcecheck.index.ranking import Ranker
+from sourcecheck.index.ranking import features as rank_features
 from sourcecheck.index.tokens import coverage
 from sourcecheck.model import Hit, Passage
 
 # Weight of the dense cosine in the fused score; 1 - DENSE_WEIGHT goes to scaled BM25.
 DENSE_WEIGHT = 0.7
+# How many first-stage candidates the ranker reorders: a cited work's passages are rarely
+# more, and the folder-wide search for a better source needs only its head re-sorted.
+RERANK_DEPTH = 40
 
 
 class EvidenceIndex:
@@ -46,6 +51,11 @@ class EvidenceIndex:
             self._last_query = (query, self._lexical.scores(query))
         return self._last_query[1]
 
+    def lexical_ceiling(self, query: str) -> float:
+        """The best BM25 score of ``query`` over the folder: what fused scores scale BM25 by."""
+        scores = self._lexical_scores(query)
+        return float(scores.max()) if scores.size else 0.0
+
     def sources(self) -> list[str]:
         """Display paths of the sources that have at least one passage."""
         return list(self._by_source)
@@ -58,12 +68,16 @@ class EvidenceIndex:
         k: int = 3,
         dense_weight: float = DENSE_WEIGHT,
         pages: set[int] | None = None,
+        ranker: Ranker | None = None,
     ) -> list[Hit]:
         """The ``k`` best passages for ``query``, within ``source`` and ``pages`` if given, best first.
 
         ``pages`` (1-based PDF pages) narrows the candidates only: BM25 is still scaled by
         its best score over the whole folder, so the fused scores of a page-restricted
         search compare directly with those of the unrestricted one.
+
+        With an active ``ranker`` the best RERANK_DEPTH candidates of the fused score are
+        put in the ranker's order, and ``Hit.fused`` holds the ranker's score.
         """
         if source is None:
             candidates = np.arange(len(self.passages))
@@ -79,6 +93,8 @@ class EvidenceIndex:
         scaled = lexical / top_lexical if top_lexical > 0 else np.zeros_like(lexical)
         dense = self._vectors[candidates] @ np.asarray(query_vector, dtype=np.float32)
         fused = dense_weight * dense + (1.0 - dense_weight) * scaled
+        if ranker is not None and ranker.active:
+            return self._reranked(query, candidates, fused, dense, lexical, scaled, k, ranker)
         order = np.argsort(-fused, kind="stable")[:k]
         hits = []
         for i in order:
@@ -93,3 +109,40 @@ class EvidenceIndex:
                 )
             )
         return hits
+
+    def _reranked(
+        self,
+        query: str,
+        candidates: np.ndarray,
+        fused: np.ndarray,
+        dense: np.ndarray,
+        lexical: np.ndarray,
+        scaled: np.ndarray,
+        k: int,
+        ranker: Ranker,
+    ) -> list[Hit]:
+        """The first stage's best candidates, best ``k`` by the ranker.
+
+        Only candidates within ``ranker.margin`` of the first stage's best fused score are
+        reordered: the ranker's section and wording features break near-ties (an abstract's
+        background and results sentences are equally on topic), but must not let a results
+        passage on another point outrank the passage that states the claim nearly word for
+        word, wherever that stands.
+        """
+        order = np.argsort(-fused, kind="stable")[:RERANK_DEPTH]
+        ceiling = float(fused[order[0]])
+        ranked = []
+        for i in order:
+            passage = self.passages[int(candidates[i])]
+            share = coverage(query, passage.text)
+            values = rank_features(query, passage, float(dense[i]), float(scaled[i]), share)
+            hit = Hit(
+                passage=passage,
+                fused=ranker.score(values),
+                dense=float(dense[i]),
+                bm25=float(lexical[i]),
+                coverage=share,
+            )
+            ranked.append((float(fused[i]) >= ceiling - ranker.margin, hit))
+        ranked.sort(key=lambda pair: (not pair[0], -pair[1].fused))
+        return [hit for _, hit in ranked[:k]]

@@ -10,7 +10,8 @@ from __future__ import annotations
 
 import json
 import math
-from dataclasses import dataclass
+from collections.abc import Mapping
+from dataclasses import dataclass, field
 from importlib import resources
 
 from sourcecheck.judge.features import FEATURE_NAMES, Features
@@ -19,7 +20,8 @@ from sourcecheck.judge.features import FEATURE_NAMES, Features
 @dataclass(frozen=True)
 class Calibration:
     """Logistic weights over FEATURE_NAMES, the two band thresholds on the score, and the
-    retrieval fusion weight the features were fitted with (the index must use the same)."""
+    retrieval parameters the features were fitted with (the index must use the same): the
+    first stage's fusion weight and the second stage's ranking weights, by feature name."""
 
     weights: tuple[float, ...]
     bias: float
@@ -27,6 +29,8 @@ class Calibration:
     adrift_below: float
     provenance: str
     dense_weight: float = 0.7
+    ranking: Mapping[str, float] = field(default_factory=dict)
+    ranking_margin: float = 0.0
 
     def score(self, features: Features) -> float:
         """Probability in [0, 1] that the passage backs the claim."""
@@ -48,4 +52,6 @@ def load_calibration(text: str | None = None) -> Calibration:
         adrift_below=float(data["thresholds"]["adrift_below"]),
         provenance=str(data.get("made_by", "")),
         dense_weight=float(data.get("dense_weight", 0.7)),
+        ranking={str(k): float(v) for k, v in data.get("ranking", {}).get("weights", {}).items()},
+        ranking_margin=float(data.get("ranking", {}).get("margin", 0.0)),
     )

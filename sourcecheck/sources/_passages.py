@@ -11,11 +11,13 @@ from __future__ import annotations
 
 import math
 import re
+from dataclasses import replace
 from functools import lru_cache
 
 import pysbd
 
 from sourcecheck.model import Passage
+from sourcecheck.sources._sections import heading_role, run_in_heading
 
 #: A paragraph of at most this many words with no closing punctuation is a heading, a
 #: figure label or a title fragment ("2 Methods", "Table 3"): it states nothing a claim
@@ -81,12 +83,36 @@ def make_passages(source: str, pages: list[list[str]], max_words: int, start: in
     if max_words < 1:
         raise ValueError("max_words must be at least 1")
     passages: list[Passage] = []
-    ordinal = start
+    runs: list[int] = []  # which section run each passage belongs to, for its place in it
+    ordinal, role, run = start, "", 0
     for number, paragraphs in enumerate(pages, start=1):
         for paragraph in paragraphs:
+            announced = heading_role(paragraph)
+            if announced is not None:
+                role, run = announced, run + 1
+                continue
             if is_fragment(paragraph):
                 continue
+            run_in = run_in_heading(paragraph)
+            if run_in is not None:
+                role, run = run_in[0], run + 1
             for text in pack_paragraph(paragraph, max_words):
-                passages.append(Passage(source=source, page=number, text=text, ordinal=ordinal))
+                passages.append(Passage(source=source, page=number, text=text, ordinal=ordinal, section=role))
+                runs.append(run)
                 ordinal += 1
-    return passages
+    return _with_places(passages, runs)
+
+
+def _with_places(passages: list[Passage], runs: list[int]) -> list[Passage]:
+    """Each passage's place within its section run: 0.0 for the first, 1.0 for the last."""
+    sizes: dict[int, int] = {}
+    for run in runs:
+        sizes[run] = sizes.get(run, 0) + 1
+    seen: dict[int, int] = {}
+    placed = []
+    for passage, run in zip(passages, runs, strict=True):
+        k = seen.get(run, 0)
+        seen[run] = k + 1
+        place = k / (sizes[run] - 1) if sizes[run] > 1 else 0.0
+        placed.append(replace(passage, place=round(place, 4)))
+    return placed
