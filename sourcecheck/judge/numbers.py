@@ -545,3 +545,17 @@ def unsupported_numbers(claim: str, best: str, others: list[str]) -> list[Number
         counterpart = max(rivals, key=lambda q: len(q.context & wanted.context), default=None)
         findings.append(NumberFinding(claim=wanted, counterpart=counterpart))
     return findings
+
+
+def in_claim_unit(claim: Quantity, counterpart: Quantity) -> str:
+    """The counterpart restated in the claim's unit ("= 0.45 g") when the two units differ.
+
+    A reader comparing "0.5 g" with "450 mg" should not have to convert; temperatures are
+    left as written (their scales have offsets, and the difference is plain).
+    """
+    units = {claim.unit, counterpart.unit}
+    if not claim.unit or not counterpart.unit or len(units) == 1 or units & {"°C", "K", "fraction", "%"}:
+        return ""
+    if claim.kind != counterpart.kind or not claim.scale:
+        return ""
+    return f" (= {counterpart.value / claim.scale:.4g} {claim.unit})"

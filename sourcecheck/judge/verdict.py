@@ -20,6 +20,7 @@ from dataclasses import replace
 from sourcecheck.judge.calibration import Calibration
 from sourcecheck.judge.features import Features, features_of
 from sourcecheck.judge.locators import page_label
+from sourcecheck.judge.numbers import in_claim_unit
 from sourcecheck.judge.quotes import QuoteFinding, drift_message
 from sourcecheck.model import Band, Check, Citation, Evidence, Hit, Reason, Reference
 
@@ -86,7 +87,8 @@ def judge(
     conflicts = [
         Reason(
             "number-mismatch",
-            f"claim says {f.claim.text}, source says {f.counterpart.text} ({_page(best)})",
+            f"claim says {f.claim.text}, source says {f.counterpart.text}"
+            f"{in_claim_unit(f.claim, f.counterpart)} ({_page(best)})",
         )
         for f in features.numbers
         if f.counterpart is not None

@@ -4,7 +4,7 @@ import math
 
 import pytest
 
-from sourcecheck.judge.numbers import quantities, same_value, unsupported_numbers
+from sourcecheck.judge.numbers import in_claim_unit, quantities, same_value, unsupported_numbers
 
 
 def _one(text: str):
@@ -285,3 +285,23 @@ def test_a_sign_counts_only_when_both_numbers_carry_one() -> None:
 def test_a_bare_word_is_not_a_unit() -> None:
     assert _findings("5 m apart", "the 5 most common") == [("5 m", None)]
     assert _one("the 5 most common").unit == ""
+
+
+def test_a_mismatch_in_another_unit_is_restated_in_the_claims_unit() -> None:
+    # SI Brochure (BIPM, 9th ed., 2019), Table 7: milli = 10^-3, micro = 10^-6 (from memory).
+    [finding] = unsupported_numbers("The dose was 0.5 g per day.", "The dose was 400 mg per day.", [])
+    assert finding.counterpart is not None
+    assert in_claim_unit(finding.claim, finding.counterpart) == " (= 0.4 g per day)"
+    [finding] = unsupported_numbers("Levels were 12 µg/mL in serum.", "Levels were 0.02 mg/mL in serum.", [])
+    assert finding.counterpart is not None
+    assert in_claim_unit(finding.claim, finding.counterpart) == " (= 20 µg/mL)"
+
+
+def test_same_unit_or_temperature_is_not_restated() -> None:
+    # Common practice, no source: restating "18%" as "18%" or 300 K as °C adds nothing.
+    [finding] = unsupported_numbers("Cover was 23% of plots.", "Cover was 18% of plots.", [])
+    assert finding.counterpart is not None
+    assert in_claim_unit(finding.claim, finding.counterpart) == ""
+    [finding] = unsupported_numbers("Temperature was 25 °C.", "Temperature was 300 K.", [])
+    assert finding.counterpart is not None
+    assert in_claim_unit(finding.claim, finding.counterpart) == ""
