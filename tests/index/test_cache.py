@@ -86,3 +86,16 @@ def test_entry_of_the_older_format_is_rebuilt(tmp_path: Path) -> None:
     entry.write_text(json.dumps(old), encoding="utf-8")
     assert cache.load_source("ab" * 32, "x1", "a.pdf") is None
     assert len(cache.warnings) == 1
+
+
+def test_section_and_place_of_passages_survive_the_round_trip(tmp_path: Path) -> None:
+    cache = Cache(tmp_path)
+    source = _source()
+    source.passages = [
+        Passage(source.path, 1, "Herons avoid dredged shores.", 0, section="background", place=0.0),
+        Passage(source.path, 2, "Nest counts rose by 18%.", 1, section="results", place=0.3333),
+    ]
+    cache.save_source(source, "x1")
+    loaded = cache.load_source("ab" * 32, "x1", "a.pdf")
+    assert loaded is not None
+    assert [(p.section, p.place) for p in loaded.passages] == [("background", 0.0), ("results", 0.3333)]

@@ -1,8 +1,13 @@
 """Hybrid search: per-source filtering and fusion of dense and lexical evidence."""
 
 import numpy as np
+import pytest
+from rank_bm25 import BM25Okapi
 
-from sourcecheck.index.search import EvidenceIndex
+from sourcecheck.index.lexical import K1, B
+from sourcecheck.index.ranking import Ranker
+from sourcecheck.index.search import DENSE_WEIGHT, EvidenceIndex
+from sourcecheck.index.tokens import tokenize
 from sourcecheck.model import Passage
 
 PASSAGES = [
@@ -63,3 +68,67 @@ def test_pages_across_sources_and_pages_with_no_passage() -> None:
     assert {(h.passage.source, h.passage.page) for h in hits} == {("a.pdf", 1), ("b.pdf", 1)}
     assert index.search("heron", np.ones(4, dtype=np.float32), source="a.pdf", pages={9}) == []
     assert index.search("heron", np.ones(4, dtype=np.float32), source="a.pdf", pages=set()) == []
+
+
+# --- reranking -------------------------------------------------------------------------
+
+
+def _unit(cosine: float) -> np.ndarray:
+    """A unit vector whose cosine with the query [1, 0] is ``cosine``."""
+    return np.array([cosine, np.sqrt(1.0 - cosine**2)], dtype=np.float32)
+
+
+QUERY = np.array([1.0, 0.0], dtype=np.float32)
+# The query shares no word with the passages, so BM25 is zero and fused = DENSE_WEIGHT * cosine.
+SILENT_QUERY = "cormorant roost"
+
+
+def _sectioned(background: float, results: float) -> EvidenceIndex:
+    passages = [
+        Passage("a.pdf", 1, "Herons were long thought to avoid dredged shores.", 0, section="background"),
+        Passage("a.pdf", 3, "Nest counts rose once dredging stopped.", 1, section="results"),
+    ]
+    return EvidenceIndex(passages, np.stack([_unit(background), _unit(results)]))
+
+
+RESULTS_FIRST = Ranker({"dense": 1.0, "section:results": 1.0}, margin=0.05)
+
+
+def test_ranker_moves_a_near_tie_results_passage_first() -> None:
+    index = _sectioned(background=0.80, results=0.78)  # fused gap 0.7 * 0.02 = 0.014 < 0.05
+    plain = index.search(SILENT_QUERY, QUERY, k=2)
+    assert [h.passage.section for h in plain] == ["background", "results"]
+    ranked = index.search(SILENT_QUERY, QUERY, k=2, ranker=RESULTS_FIRST)
+    assert [h.passage.section for h in ranked] == ["results", "background"]
+    # Hit.fused is now the ranker's score: dense + section:results.
+    assert ranked[0].fused == pytest.approx(0.78 + 1.0, abs=1e-6)
+    assert ranked[1].fused == pytest.approx(0.80, abs=1e-6)
+
+
+def test_ranker_keeps_a_passage_far_ahead_of_the_margin_first() -> None:
+    index = _sectioned(background=0.90, results=0.50)  # fused gap 0.28 > 0.05
+    ranked = index.search(SILENT_QUERY, QUERY, k=2, ranker=RESULTS_FIRST)
+    assert [h.passage.section for h in ranked] == ["background", "results"]
+    # The ranker scores the results passage higher (1.5 > 0.9), yet it is outside the margin.
+    assert ranked[1].fused > ranked[0].fused
+
+
+def test_without_a_ranker_hits_follow_the_fused_score() -> None:
+    index = _sectioned(background=0.60, results=0.95)
+    for ranker in (None, Ranker()):  # an empty ranker keeps the first-stage order too
+        hits = index.search(SILENT_QUERY, QUERY, k=2, ranker=ranker)
+        assert [h.passage.section for h in hits] == ["results", "background"]
+        assert [h.fused for h in hits] == pytest.approx([DENSE_WEIGHT * 0.95, DENSE_WEIGHT * 0.60], abs=1e-6)
+
+
+def test_lexical_ceiling_is_the_best_bm25_score_over_the_folder() -> None:
+    index = EvidenceIndex(PASSAGES, _vectors())
+    query = "heron nests dredging"
+    # Reference: rank-bm25's BM25Okapi over the same tokens, with the index's k1 and b.
+    reference = BM25Okapi([tokenize(p.text) for p in PASSAGES], k1=K1, b=B).get_scores(tokenize(query))
+    assert index.lexical_ceiling(query) == pytest.approx(float(max(reference)))
+    # A search inside b.pdf scales BM25 by that folder-wide best, which stands in a.pdf.
+    hit = index.search(query, np.zeros(4, dtype=np.float32), source="b.pdf", k=1)[0]
+    assert hit.fused == pytest.approx((1 - DENSE_WEIGHT) * hit.bm25 / index.lexical_ceiling(query))
+    assert hit.bm25 < index.lexical_ceiling(query)
+    assert EvidenceIndex([], np.zeros((0, 0))).lexical_ceiling(query) == 0.0
