@@ -674,6 +674,48 @@ def best_sentence(passage: str, claim_roots: set[str]) -> str:
     return passage[start:end]
 
 
+# Axes whose poles say which way an effect goes, and the way each pole means: more, faster
+# or positively associated is "up" (a ratio above 1), their opposites "down".
+_EFFECT_POLES = {
+    ("amount", "up"): "up",
+    ("amount", "down"): "down",
+    ("pace", "faster"): "up",
+    ("pace", "slower"): "down",
+    ("correlation", "positive"): "up",
+    ("correlation", "negative"): "down",
+}
+# Words that state there is no effect (common practice, no source).
+_NO_EFFECT = re.compile(
+    r"\b(?:similar|same|unrelated|independent of|unchanged|no (?:difference|effect|association|change|impact|"
+    r"relationship|link|increase|decrease|reduction)|not (?:associated|related|linked|affect\w*|change\w*|differ\w*)"
+    r"|does not|did not|do not|has no|have no|had no)\b",
+    re.IGNORECASE,
+)
+
+
+def effect_direction(text: str) -> tuple[str, str] | None:
+    """Which way ``text`` says an effect goes, with the words that say it.
+
+    "up" (increases, higher, more likely, faster), "down", or "none" ("is not associated
+    with", "similar", "does not increase": a negated direction is no effect), or None when
+    the text names no direction or names both.
+    """
+    t = _Text(text, split_sentences=False)
+    ways: dict[str, str] = {}
+    for cue in t.direction:
+        way = _EFFECT_POLES.get(_axis(cue))
+        if way is not None:
+            ways.setdefault(way, t.said(cue))
+    null = _NO_EFFECT.search(text)
+    first_direction = min((text.find(words) for words in ways.values()), default=len(text))
+    if null and (not ways or null.start() < first_direction):
+        return "none", null.group(0)  # "is not associated with an increased risk": no effect
+    if len(ways) == 1 and not null:
+        ((way, words),) = ways.items()
+        return way, words
+    return None
+
+
 def compare(claim: str, passage: str) -> list[CueFinding]:
     """The ways ``claim`` says more than ``passage`` (its cited source's best passage), in
     the order overstated, negation, direction-flip, scope-wider; at most one of each."""

@@ -9,10 +9,19 @@ from __future__ import annotations
 from dataclasses import dataclass, replace
 
 from sourcecheck.judge.cues import CueFinding, compare
+from sourcecheck.judge.effects import compare_effects
 from sourcecheck.judge.numbers import NumberFinding, unsupported_numbers
 from sourcecheck.model import Hit
 
-FEATURE_NAMES = ("dense", "coverage", "number_absent", "number_different", "conflict_cue", "weak_cue")
+FEATURE_NAMES = (
+    "dense",
+    "coverage",
+    "number_absent",
+    "number_different",
+    "conflict_cue",
+    "weak_cue",
+    "effect_disagrees",
+)
 
 #: Cue codes that make a passage say the opposite of the claim, and those that make it say less.
 CONFLICT_CUES = frozenset({"negation", "direction-flip"})
@@ -27,6 +36,7 @@ class Features:
     coverage: float
     numbers: tuple[NumberFinding, ...]
     cues: tuple[CueFinding, ...] = ()
+    effects: tuple[CueFinding, ...] = ()  # a ratio estimate against the claim's direction
 
     @property
     def number_absent(self) -> bool:
@@ -38,7 +48,8 @@ class Features:
 
     @property
     def conflict_cues(self) -> list[CueFinding]:
-        return [c for c in self.cues if c.code in CONFLICT_CUES]
+        """Wording cues and effect estimates that make the passage say the opposite."""
+        return [c for c in (*self.cues, *self.effects) if c.code in CONFLICT_CUES]
 
     @property
     def weak_cues(self) -> list[CueFinding]:
@@ -46,7 +57,7 @@ class Features:
 
     def topical(self) -> Features:
         """The same evidence with the number and wording checks left out: is it about the claim?"""
-        return replace(self, numbers=(), cues=())
+        return replace(self, numbers=(), cues=(), effects=())
 
     def vector(self) -> list[float]:
         """The features in FEATURE_NAMES order, as the fitted model expects them."""
@@ -55,8 +66,9 @@ class Features:
             self.coverage,
             float(self.number_absent),
             float(self.number_different),
-            float(bool(self.conflict_cues)),
+            float(any(c.code in CONFLICT_CUES for c in self.cues)),
             float(bool(self.weak_cues)),
+            float(bool(self.effects)),
         ]
 
 
@@ -64,9 +76,11 @@ def features_of(claim: str, hits: list[Hit]) -> Features:
     """Features of ``claim`` against ``hits`` (best first, non-empty, one source)."""
     best = hits[0]
     findings = unsupported_numbers(claim, best.passage.text, [h.passage.text for h in hits[1:]])
+    cues = compare(claim, best.passage.text)
     return Features(
         dense=max(h.dense for h in hits),
         coverage=max(h.coverage for h in hits),
         numbers=tuple(findings),
-        cues=tuple(compare(claim, best.passage.text)),
+        cues=tuple(cues),
+        effects=tuple(f for f in compare_effects(claim, best.passage.text) if f.code not in {c.code for c in cues}),
     )
