@@ -259,6 +259,8 @@ SECTIONS: tuple[tuple[str, tuple[Paragraph, ...]], ...] = (
                 ". Brood cells in dense nest aggregations were attacked by cleptoparasitic bees more often than "
                 "those in sparse aggregations ",
                 cite("[4]", 4),
+                ". Nests on waterlogged ground faced a lower risk of failure than nests on dry ground ",
+                cite("[4]", 4),
                 '. Bee flies "hovered over open burrows and flicked their eggs into the entrance" ',
                 cite("[4]", 4),
                 ". Emergence started earlier on south-facing plots, where the soil warmed faster in March ",

@@ -645,6 +645,13 @@ PARASITES = Article(
             "to the soil surface."
         ),
         Para(
+            # claim: the draft says waterlogged nests had a "lower" risk; the ratio says
+            # higher (direction-flip read from the estimate, not from a wording cue)
+            "We followed all 140 nests until the end of the season. For nests on waterlogged "
+            "ground, the hazard ratio of nest failure relative to dry ground was 2.4 (95% CI "
+            "1.5 to 3.8)."
+        ),
+        Para(
             "Brood cells lay at a mean depth of 9.6 ± 2.3 cm. Parasitised cells were no deeper "
             "or shallower than healthy ones (p = 0.38), which suggests that parasitic females "
             "enter through the open burrow rather than digging down to the cells."
