@@ -62,7 +62,7 @@ def main(argv: list[str] | None = None) -> int:
     checker = make_checker(prepared)
     claims = prepared.draft.claims
 
-    scores, support, hit1, hit3 = [], [], [], []
+    scores, support, labels, hit1, hit3 = [], [], [], [], []
     bands: dict[str, dict[str, int]] = {}
     for line in (args.out / "gold.jsonl").read_text(encoding="utf-8").splitlines():
         gold = json.loads(line)
@@ -81,6 +81,7 @@ def main(argv: list[str] | None = None) -> int:
             continue  # no source to judge: not a judgment of the evidence
         scores.append(check.score)
         support.append(gold["label"] == "SUPPORT")
+        labels.append(gold["label"])
         bands.setdefault(gold["label"], {b.value: 0 for b in Band if b is not Band.UNVERIFIABLE})[check.band.value] += 1
         if gold["rationales"] and check.source:
             hits = checker.evidence_for(query, vector, check.source)
@@ -94,7 +95,12 @@ def main(argv: list[str] | None = None) -> int:
     print(f"corpus: {args.out} ({len(scores)} judged pairs, {len(hit1)} with rationale sentences)")
     print(f"evidence hit@1  {np.mean(hit1):.3f}")
     print(f"evidence hit@3  {np.mean(hit3):.3f}")
-    print(f"AUROC, SUPPORT against the rest  {auroc(np.array(scores), np.array(support)):.3f}")
+    score_array, label_array = np.array(scores), np.array(labels)
+    print(f"AUROC, SUPPORT against the rest  {auroc(score_array, np.array(support)):.3f}")
+    for other in scifact_corpus.LABELS[1:]:
+        pair = (label_array == "SUPPORT") | (label_array == other)
+        if pair.any():
+            print(f"  SUPPORT against {other:<11}{auroc(score_array[pair], label_array[pair] == 'SUPPORT'):.3f}")
     print("bands per gold label:")
     names = [b.value for b in Band if b is not Band.UNVERIFIABLE]
     print("  " + " " * 11 + "".join(f"{n:>10}" for n in names))
