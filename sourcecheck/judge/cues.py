@@ -684,6 +684,8 @@ _EFFECT_POLES = {
     ("correlation", "positive"): "up",
     ("correlation", "negative"): "down",
 }
+# A direction word right after these is a noun naming the outcome, not the way it goes.
+_NOUN_BEFORE = frozenset(["of", "in", "from"])
 # Words that state there is no effect (common practice, no source).
 _NO_EFFECT = re.compile(
     r"\b(?:similar|same|unrelated|independent of|unchanged|no (?:difference|effect|association|change|impact|"
@@ -703,6 +705,8 @@ def effect_direction(text: str) -> tuple[str, str] | None:
     t = _Text(text, split_sentences=False)
     ways: dict[str, str] = {}
     for cue in t.direction:
+        if cue.start > 0 and t.toks[cue.start - 1].text in _NOUN_BEFORE:
+            continue  # "the risk of falls", "an increase": a noun naming the outcome
         way = _EFFECT_POLES.get(_axis(cue))
         if way is not None:
             ways.setdefault(way, t.said(cue))

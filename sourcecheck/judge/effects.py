@@ -31,8 +31,9 @@ _SAME_SENTENCE = r"(?:[^.]|(?<=\d)\.(?=\d))"
 _RATIO = re.compile(
     r"(?P<name>\b(?:(?:odds|hazards?|risk|rate|incidence rate|prevalence|subdistribution hazard)\s+ratios?"
     r"|relative\s+risks?|\b(?:a|s)?(?:OR|HR|RR|IRR|PR)s?\b(?!-\w)))"
-    r"(?P<between>[^.;\d]{0,80}?)"
-    rf"(?<![\w.]){_NUMBER}(?![\w.]|\.\d)",
+    # "odds ratio (95% CI) was 1.40 (...)": the level in brackets may come first
+    r"(?P<between>(?:[^.;\d]|\(\s*\d{2}\s*%\s*(?:CI|confidence intervals?)\s*\)){0,80}?)"
+    rf"(?<![\w.]){_NUMBER}(?![\w.]|\.\d|\s*%)",
     re.IGNORECASE,
 )
 _SHORT = re.compile(r"[as]?(?:or|hr|rr|irr|pr)s?", re.IGNORECASE)

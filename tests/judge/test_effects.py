@@ -298,3 +298,26 @@ def test_a_ratio_against_the_claim_makes_the_check_a_conflict() -> None:
     flips = [r for r in check.reasons if r.code == "direction-flip"]
     assert len(flips) == 1
     assert "0.83 (95% CI 0.72-0.96)" in flips[0].message and "p. 4" in flips[0].message
+
+
+@pytest.mark.parametrize(
+    ("text", "way"),
+    [
+        ("Statins increase the risk of falls.", "up"),
+        ("Screening reduces the incidence of falls.", "down"),
+        ("Exercise led to a rise in falls.", "up"),
+    ],
+)
+def test_a_direction_word_naming_the_outcome_is_not_a_direction(text: str, way: str) -> None:
+    # "falls" after "of" or "in" names the outcome; only the verb or the noun after an
+    # article says which way it goes (common practice, no source).
+    found = effect_direction(text)
+    assert found is not None and found[0] == way
+
+
+def test_a_confidence_level_named_before_the_estimate_is_skipped() -> None:
+    # The "(95% CI)" column-head form of results tables and text (ICMJE/CONSORT reporting
+    # of estimates with intervals; from memory).
+    [estimate] = estimates("The odds ratio (95% CI) was 1.40 (1.10 to 1.80).")
+    assert (estimate.value, estimate.low, estimate.high) == (1.40, 1.10, 1.80)
+    assert estimate.direction == "up"
