@@ -202,6 +202,7 @@ class Evidence:
     score: float
     source: str
     printed_page: str | None = None  # the page number printed on that PDF page, when known
+    section: str = ""  # the role of the section it stands in (SECTION_ROLES), "" when unknown
 
 
 @dataclass

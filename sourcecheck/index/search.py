@@ -13,7 +13,7 @@ from collections.abc import Sequence
 import numpy as np
 
 from sourcecheck.index.lexical import LexicalIndex
-from sourcecheck.index.ranking import Ranker
+from sourcecheck.index.ranking import RANK_FEATURES, Ranker
 from sourcecheck.index.ranking import features as rank_features
 from sourcecheck.index.tokens import coverage
 from sourcecheck.model import Hit, Passage
@@ -23,6 +23,7 @@ DENSE_WEIGHT = 0.7
 # How many first-stage candidates the ranker reorders: a cited work's passages are rarely
 # more, and the folder-wide search for a better source needs only its head re-sorted.
 RERANK_DEPTH = 40
+SENTENCE_COVERAGE = RANK_FEATURES.index("sentence_coverage")
 
 
 class EvidenceIndex:
@@ -123,19 +124,24 @@ class EvidenceIndex:
     ) -> list[Hit]:
         """The first stage's best candidates, best ``k`` by the ranker.
 
-        Only candidates within ``ranker.margin`` of the first stage's best fused score are
-        reordered: the ranker's section and wording features break near-ties (an abstract's
-        background and results sentences are equally on topic), but must not let a results
-        passage on another point outrank the passage that states the claim nearly word for
-        word, wherever that stands.
+        The ranker's section and wording features break near-ties (an abstract's
+        background and results sentences are equally on topic), so only near-ties may
+        overtake the first stage's best passage: candidates within ``ranker.margin`` of its
+        fused score whose best sentence holds nearly as many of the claim's words
+        (within ranker.coverage_slack). A passage that states the claim almost word for
+        word thus stays first wherever it stands: claims of background and of methods are
+        cited too, and their backing is in the introduction or the methods.
         """
         order = np.argsort(-fused, kind="stable")[:RERANK_DEPTH]
         ceiling = float(fused[order[0]])
-        ranked = []
+        ranked: list[tuple[bool, Hit]] = []
+        floor = 0.0
         for i in order:
             passage = self.passages[int(candidates[i])]
             share = coverage(query, passage.text)
             values = rank_features(query, passage, float(dense[i]), float(scaled[i]), share)
+            if not ranked:
+                floor = values[SENTENCE_COVERAGE] - ranker.coverage_slack
             hit = Hit(
                 passage=passage,
                 fused=ranker.score(values),
@@ -143,6 +149,7 @@ class EvidenceIndex:
                 bm25=float(lexical[i]),
                 coverage=share,
             )
-            ranked.append((float(fused[i]) >= ceiling - ranker.margin, hit))
+            eligible = float(fused[i]) >= ceiling - ranker.margin and values[SENTENCE_COVERAGE] >= floor
+            ranked.append((eligible or not ranked, hit))
         ranked.sort(key=lambda pair: (not pair[0], -pair[1].fused))
         return [hit for _, hit in ranked[:k]]

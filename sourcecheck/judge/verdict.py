@@ -80,6 +80,7 @@ def judge(
             page=h.passage.page,
             score=round(max(0.0, min(1.0, h.dense)), 3),
             source=h.passage.source,
+            section=h.passage.section,
         )
         for h in hits[:EVIDENCE_SHOWN]
     ]

@@ -41,7 +41,8 @@ def _check(check: Check) -> dict[str, Any]:
 
 def _evidence(evidence: Evidence) -> dict[str, Any]:
     """One evidence item; ``page`` is the PDF page, ``printed_page`` (only when known) the
-    number printed on it, which is what a citation's "p. 306" refers to."""
+    number printed on it, which is what a citation's "p. 306" refers to, and ``section``
+    (only when known) the role of the section the passage stands in ("results")."""
     item: dict[str, Any] = {
         "text": evidence.text,
         "page": evidence.page,
@@ -50,6 +51,8 @@ def _evidence(evidence: Evidence) -> dict[str, Any]:
     }
     if evidence.printed_page is not None:
         item["printed_page"] = evidence.printed_page
+    if evidence.section:
+        item["section"] = evidence.section
     return item
 
 

@@ -26,11 +26,13 @@ PASSAGE_WORDS = 45
 
 
 def _page(evidence: Evidence) -> str:
-    """ "p. 2", or "p. 2 (printed 306)" when the page prints another number."""
+    """ "p. 2", "p. 2 (printed 306)" when the page prints another number, and ", results"
+    when the section is known, so the reader knows where on the page to look."""
     printed = evidence.printed_page
-    if printed is None or printed == str(evidence.page):
-        return f"p. {evidence.page}"
-    return f"p. {evidence.page} (printed {printed})"
+    where = f"p. {evidence.page}"
+    if printed is not None and printed != str(evidence.page):
+        where += f" (printed {printed})"
+    return f"{where}, {evidence.section}" if evidence.section else where
 
 
 def _check_block(check: Check) -> Group:

@@ -113,6 +113,22 @@ def test_ranker_keeps_a_passage_far_ahead_of_the_margin_first() -> None:
     assert ranked[1].fused > ranked[0].fused
 
 
+def test_ranker_keeps_a_restatement_of_the_claim_first() -> None:
+    # The background sentence holds every content word of the query, the results one
+    # none: even a near-tie in fused score may not overtake a restatement.
+    passages = [
+        Passage("a.pdf", 1, "Cormorant roost sites shift each winter.", 0, section="background"),
+        Passage("a.pdf", 3, "Nest counts rose once dredging stopped.", 1, section="results"),
+    ]
+    index = EvidenceIndex(passages, np.stack([_unit(0.80), _unit(0.80)]))
+    query = "cormorant roost sites shift each winter"
+    ranked = index.search(query, QUERY, k=2, ranker=RESULTS_FIRST)
+    assert [h.passage.section for h in ranked] == ["background", "results"]
+    assert ranked[1].fused > ranked[0].fused  # the ranker alone would have swapped them
+    lenient = Ranker(RESULTS_FIRST.weights, margin=1.0, coverage_slack=1.0)
+    assert index.search(query, QUERY, k=2, ranker=lenient)[0].passage.section == "results"
+
+
 def test_without_a_ranker_hits_follow_the_fused_score() -> None:
     index = _sectioned(background=0.60, results=0.95)
     for ranker in (None, Ranker()):  # an empty ranker keeps the first-stage order too
