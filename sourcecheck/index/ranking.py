@@ -29,6 +29,7 @@ RANK_FEATURES = (
     "place",
     "reports_finding",
     "sets_background",
+    "reports_statistics",
     *(f"section:{role}" for role in SECTION_ROLES),
 )
 
@@ -66,6 +67,13 @@ _BACKGROUND = re.compile(
 )
 
 
+# A reported statistic: a p-value, a confidence interval, a percentage, a ratio or a
+# sample size; the way results sections state findings (common practice, no source).
+_STATISTIC = re.compile(
+    r"\b[Pp]\s*[<>=≤≥]\s*0?[.·]\d|\b(?:CI|confidence interval)\b|\d\s?%|\b(?:OR|HR|RR)\b|\b[nN]\s*=\s*\d"
+)
+
+
 def sentence_coverage(query: str, text: str) -> float:
     """The largest share of the query's content words that one sentence of ``text`` holds."""
     return max((coverage(query, s) for s in _SENTENCE_END.split(text) if s.strip()), default=0.0)
@@ -82,6 +90,7 @@ def features(query: str, passage: Passage, dense: float, bm25_scaled: float, pas
         passage.place,
         float(bool(_OWN_FINDING.search(passage.text))),
         float(bool(_BACKGROUND.search(passage.text))),
+        float(bool(_STATISTIC.search(passage.text))),
         *roles,
     ]
 

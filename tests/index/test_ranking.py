@@ -16,7 +16,7 @@ def _passage(text: str, section: str = "", place: float = 0.0) -> Passage:
 def test_feature_vector_follows_the_declared_order() -> None:
     passage = _passage("We found that heron nests rose by 18%.", section="results", place=0.25)
     values = features("heron nests rose", passage, dense=0.8, bm25_scaled=0.6, passage_coverage=0.9)
-    assert len(values) == len(RANK_FEATURES) == 7 + len(SECTION_ROLES)
+    assert len(values) == len(RANK_FEATURES) == 8 + len(SECTION_ROLES)
     named = dict(zip(RANK_FEATURES, values, strict=True))
     assert named["dense"] == 0.8
     assert named["bm25"] == 0.6
@@ -25,7 +25,24 @@ def test_feature_vector_follows_the_declared_order() -> None:
     assert named["place"] == 0.25
     assert named["reports_finding"] == 1.0  # "we found"
     assert named["sets_background"] == 0.0
+    assert named["reports_statistics"] == 1.0  # "18%"
     assert named["section:results"] == 1.0
+
+
+@pytest.mark.parametrize(
+    ("text", "expected"),
+    [
+        # Reporting forms of APA 7 (6.43-6.46) and the ICMJE recommendations (from memory).
+        ("Survival differed between groups (p < .05).", 1.0),
+        ("The odds ratio was 1.8 (95% CI 1.2 to 2.6).", 1.0),
+        ("Of the nests, 18% failed.", 1.0),
+        ("We sampled every plot (n = 48).", 1.0),
+        ("Herons nest on dredged shores.", 0.0),
+    ],
+)
+def test_reported_statistics_are_flagged(text: str, expected: float) -> None:
+    named = dict(zip(RANK_FEATURES, features("heron", _passage(text), 0.0, 0.0, 0.0), strict=True))
+    assert named["reports_statistics"] == expected
 
 
 def test_background_wording_is_flagged_and_finding_wording_is_not() -> None:
