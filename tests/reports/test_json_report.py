@@ -54,3 +54,12 @@ def test_evidence_keeps_the_pdf_page_and_adds_the_printed_one_when_known() -> No
     item = _with_printed_page("306")
     assert item["page"] == 2 and item["printed_page"] == "306"
     assert "printed_page" not in _with_printed_page(None)
+
+
+def test_evidence_names_its_section_only_when_known() -> None:
+    # DESIGN.md contract: fields are only ever added; "section" is one, absent when unknown.
+    report = sample_report()
+    check = report.claims[0].checks[0]
+    assert "section" not in json.loads(dumps(report))["claims"][0]["checks"][0]["evidence"][0]
+    check.evidence = [replace(e, section="results") for e in check.evidence]
+    assert json.loads(dumps(report))["claims"][0]["checks"][0]["evidence"][0]["section"] == "results"

@@ -43,3 +43,12 @@ def test_printed_page_is_shown_beside_the_pdf_page() -> None:
     console = Console(width=60, file=io.StringIO(), force_terminal=True, color_system=None)
     render(report, console)
     assert "p. 2 (printed 306):" in console.file.getvalue()  # type: ignore[attr-defined]
+
+
+def test_the_section_of_the_passage_is_named_after_its_page() -> None:
+    report = sample_report()
+    check = report.claims[0].checks[0]
+    check.evidence = [replace(e, page=2, printed_page="306", section="results") for e in check.evidence]
+    console = Console(width=60, file=io.StringIO(), force_terminal=True, color_system=None)
+    render(report, console)
+    assert "p. 2 (printed 306), results:" in console.file.getvalue()  # type: ignore[attr-defined]
