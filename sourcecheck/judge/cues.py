@@ -674,6 +674,11 @@ def best_sentence(passage: str, claim_roots: set[str]) -> str:
     return passage[start:end]
 
 
+def closest_sentence(claim: str, passage: str) -> str:
+    """The passage's sentence sharing most content words with ``claim`` (see best_sentence)."""
+    return best_sentence(passage, _Text(claim, split_sentences=False).roots)
+
+
 # Axes whose poles say which way an effect goes, and the way each pole means: more, faster
 # or positively associated is "up" (a ratio above 1), their opposites "down".
 _EFFECT_POLES = {

@@ -21,8 +21,7 @@ from __future__ import annotations
 import re
 from dataclasses import dataclass
 
-from sourcecheck.index.tokens import tokenize
-from sourcecheck.judge.cues import CueFinding, best_sentence, effect_direction
+from sourcecheck.judge.cues import CueFinding, closest_sentence, effect_direction
 
 # The Lancet writes the decimal point as a raised dot ("1·75").
 _NUMBER = r"(\d+(?:[.·]\d+)?|[.·]\d+)"
@@ -119,7 +118,6 @@ def estimates(sentence: str) -> list[Estimate]:
 _SAYS = {
     "up": "a ratio above 1: higher in the group compared",
     "down": "a ratio below 1: lower in the group compared",
-    "none": "no clear effect",
 }
 
 
@@ -130,7 +128,7 @@ def compare_effects(claim: str, passage: str) -> list[CueFinding]:
     if said is None:
         return []
     way, words = said
-    sentence = best_sentence(passage, set(tokenize(claim)))
+    sentence = closest_sentence(claim, passage)
     directions = {e.direction for e in estimates(sentence)} - {None}
     if len(directions) != 1:
         return []
@@ -142,7 +140,8 @@ def compare_effects(claim: str, passage: str) -> list[CueFinding]:
         message = f'claim says "{words}" (no effect); the source reports {estimate.text}, {_SAYS[reported]}'
         return [CueFinding("negation", words, estimate.text, message)]
     if reported == "none":
-        message = f'claim says "{words}"; the source reports {estimate.text}, an interval that holds no effect'
+        why = "its interval holds 1" if estimate.low is not None else "p ≥ 0.05"
+        message = f'claim says "{words}"; the source reports {estimate.text}: no clear effect ({why})'
         return [CueFinding("negation", words, estimate.text, message)]
     message = (
         f'claim says "{words}"; the source reports {estimate.text}, {_SAYS[reported]}'
