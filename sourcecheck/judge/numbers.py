@@ -32,6 +32,7 @@ from __future__ import annotations
 
 import math
 import re
+from collections.abc import Callable
 from dataclasses import dataclass, replace
 from functools import lru_cache
 
@@ -391,10 +392,12 @@ def _quantity(text: str, reading: _Reading) -> Quantity:
     )
 
 
-def _spelled(text: str) -> list[Quantity]:
+def _spelled(text: str, free: Callable[[int, int], bool] = lambda a, b: True) -> list[Quantity]:
     """Spelled-out numbers up to twenty ("twelve sites", "five percent", "twofold")."""
     found = []
     for match in _SPELLED_WORD.finditer(text):
+        if not free(match.start(), match.end()):
+            continue
         value = _SPELLED[match.group("word").lower()]
         number = _Number(match.start(), match.end(), value, 0, False, False)
         reading = _Reading(match.start(), match.end(), number)
@@ -414,10 +417,59 @@ def quantities(text: str) -> list[Quantity]:
     return list(_cached_quantities(text))
 
 
+_COUNT_WORD = r"(?:\d[\d,]*|" + "|".join(_SPELLED_VALUES[1:]) + r")"
+# "one in five", "1 in 5 million", "three out of four": a proportion written as a ratio.
+_ONE_IN = re.compile(
+    rf"\b(?P<a>{_COUNT_WORD})\s+(?:in|out\s+of)\s+(?P<b>{_COUNT_WORD})(?:\s+(?P<mult>thousand|million|billion))?\b",
+    re.IGNORECASE,
+)
+_MULTIPLIERS = {"thousand": 1e3, "million": 1e6, "billion": 1e9}
+
+
+def _count(written: str) -> float:
+    word = written.lower()
+    return _SPELLED[word] if word in _SPELLED else float(written.replace(",", ""))
+
+
+def _proportions(text: str) -> tuple[list[Quantity], list[tuple[int, int]]]:
+    """Proportions written "one in five" (as a percentage), and the spans they take.
+
+    The written ratio is a round figure for a rate ("one in five" for 19% to 21%), so it
+    matches within 5% of its value (common practice, no source).
+    """
+    found, spans = [], []
+    for match in _ONE_IN.finditer(text):
+        a, b = _count(match.group("a")), _count(match.group("b"))
+        b *= _MULTIPLIERS.get((match.group("mult") or "").lower(), 1.0)
+        if not b or a > b:
+            continue  # "12 in 10 sites" is no proportion
+        percent = 100.0 * a / b
+        window = text[max(0, match.start() - _CONTEXT_CHARS) : match.end() + _CONTEXT_CHARS]
+        found.append(
+            Quantity(
+                text=match.group(0),
+                value=percent,
+                decimals=0,
+                kind="%",
+                context=frozenset(t for t in tokenize(window) if not t[0].isdigit()),
+                unit="%",
+                scale=percent / 10.0,
+            )
+        )
+        spans.append((match.start(), match.end()))
+    return found, spans
+
+
 @lru_cache(maxsize=2048)
 def _cached_quantities(text: str) -> tuple[Quantity, ...]:
     """Passages come back for several claims (and the better-source search): read each once."""
-    return (*[_quantity(text, r) for r in _readings(text)], *_spelled(text))
+    proportions, spans = _proportions(text)
+
+    def free(start: int, end: int) -> bool:
+        return not any(start < b and a < end for a, b in spans)
+
+    readings = [_quantity(text, r) for r in _readings(text) if free(r.start, r.end)]
+    return (*readings, *_spelled(text, free), *proportions)
 
 
 def _family(q: Quantity) -> str:

@@ -315,3 +315,22 @@ def test_single_site_and_place_qualifiers() -> None:
 )
 def test_matching_or_empty_text_gives_no_findings(claim: str, passage: str) -> None:
     assert compare(claim, passage) == []
+
+
+@pytest.mark.parametrize(
+    ("claim", "passage", "said"),
+    [
+        # WordNet antonym pairs activate/inactivate and stabilize/destabilize (Fellbaum,
+        # 1998; from memory); deactivate/activate as the field writes it.
+        ("The enzyme deactivates the membrane receptor.", "The enzyme activates the membrane receptor.", "deactivates"),
+        ("Salt inactivates the pump.", "Salt activated the pump within minutes.", "inactivates"),
+        ("The protein stabilizes the spindle.", "The protein destabilizes the spindle.", "stabilizes"),
+    ],
+)
+def test_switching_a_process_on_against_off_is_a_direction_flip(claim: str, passage: str, said: str) -> None:
+    [finding] = [f for f in compare(claim, passage) if f.code == "direction-flip"]
+    assert finding.claim_cue == said
+
+
+def test_the_same_switch_in_claim_and_passage_is_no_flip() -> None:
+    assert [f for f in compare("The kinase activates the receptor.", "The kinase activated the receptor.")] == []

@@ -305,3 +305,22 @@ def test_same_unit_or_temperature_is_not_restated() -> None:
     [finding] = unsupported_numbers("Temperature was 25 °C.", "Temperature was 300 K.", [])
     assert finding.counterpart is not None
     assert in_claim_unit(finding.claim, finding.counterpart) == ""
+
+
+@pytest.mark.parametrize(
+    ("text", "percent"),
+    [("One in five trials stopped early.", 20.0), ("1 in 4 plots", 25.0), ("three out of four nests", 75.0)],
+)
+def test_a_proportion_written_as_one_in_n_is_a_percentage(text: str, percent: float) -> None:
+    # "one in five" = 1/5 = 20% (arithmetic; the form is common practice, no source).
+    [q] = [q for q in quantities(text) if q.kind == "%"]
+    assert q.value == pytest.approx(percent)
+    assert not [q for q in quantities(text) if q.kind != "%"]  # "one" and "five" are not counts too
+
+
+def test_one_in_n_matches_the_rounded_percentage_and_flags_another_ratio() -> None:
+    # A rate given as "one in five" is a round figure: 21% is the same figure, "one in
+    # three" is not (common practice, no source).
+    assert unsupported_numbers("About one in five nests failed.", "Of the nests, 21% failed.", []) == []
+    [finding] = unsupported_numbers("One in two trials stop early.", "One in three trials stop early.", [])
+    assert finding.counterpart is not None and finding.counterpart.text == "One in three"
