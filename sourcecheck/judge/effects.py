@@ -121,15 +121,44 @@ _SAYS = {
 }
 
 
+# A sentence that reports an association (common practice in reporting results, no
+# source); kept narrow: "was associated with", not a bare "associated".
+_REPORTS_ASSOCIATION = re.compile(
+    r"(?<!\bnot )(?<!\bno )\b(?:was|were|is|are|being)\s+(?:(?:positively|negatively|significantly|strongly|"
+    r"independently|inversely)\s+)*(?:associated|correlated|linked)\s+(?:with|to)\b",
+    re.IGNORECASE,
+)
+
+
+def _association_disagrees(way: str, words: str, sentence: str) -> list[CueFinding]:
+    """A claimed absence of effect against an association the closest passage sentence
+    reports ("unrelated to" against "was associated with").
+
+    The converse (a claimed effect against "no difference" in the passage) is left to the
+    negation cue: read here as well, it fired on SciFact's supported claims about as
+    often as on contradicted ones (holdout AUROC 0.790 without it, 0.780 with it).
+    """
+    if way != "none":
+        return []
+    found = _REPORTS_ASSOCIATION.search(sentence)
+    if not found:
+        return []
+    said = " ".join(found.group(0).split())
+    message = f'claim says "{words}" (no effect); the source says "{said}"'
+    return [CueFinding("negation", words, said, message)]
+
+
 def compare_effects(claim: str, passage: str) -> list[CueFinding]:
     """A ``direction-flip`` or ``negation`` when the claim's words and the passage's ratio
-    estimate disagree on which way the effect goes; otherwise nothing."""
+    estimate (or its words of association) disagree on which way the effect goes."""
     said = effect_direction(claim)
     if said is None:
         return []
     way, words = said
     sentence = closest_sentence(claim, passage)
     directions = {e.direction for e in estimates(sentence)} - {None}
+    if not directions:
+        return _association_disagrees(way, words, sentence)
     if len(directions) != 1:
         return []
     (reported,) = directions

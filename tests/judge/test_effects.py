@@ -321,3 +321,19 @@ def test_a_confidence_level_named_before_the_estimate_is_skipped() -> None:
     [estimate] = estimates("The odds ratio (95% CI) was 1.40 (1.10 to 1.80).")
     assert (estimate.value, estimate.low, estimate.high) == (1.40, 1.10, 1.80)
     assert estimate.direction == "up"
+
+
+def test_a_claimed_absence_against_a_reported_association_is_a_negation() -> None:
+    # "X is unrelated to Y" against "X was associated with Y": the source reports the very
+    # association the claim denies (common practice in reading results, no source).
+    [finding] = compare_effects(
+        "Road noise is unrelated to nest desertion.",
+        "Road noise was significantly associated with nest desertion in all three years.",
+    )
+    assert finding.code == "negation" and finding.source_cue == "was significantly associated with"
+
+
+def test_a_denied_association_in_the_source_agrees_with_a_claimed_absence() -> None:
+    claim = "Road noise is unrelated to nest desertion."
+    assert compare_effects(claim, "Road noise was not associated with nest desertion.") == []
+    assert compare_effects("Road noise increases nest desertion.", "Road noise was associated with desertion.") == []
