@@ -334,3 +334,19 @@ def test_switching_a_process_on_against_off_is_a_direction_flip(claim: str, pass
 
 def test_the_same_switch_in_claim_and_passage_is_no_flip() -> None:
     assert [f for f in compare("The kinase activates the receptor.", "The kinase activated the receptor.")] == []
+
+
+@pytest.mark.parametrize(
+    ("claim", "passage", "said"),
+    [
+        # WordNet antonyms central/peripheral and intracellular/extracellular (Fellbaum,
+        # 1998; from memory).
+        ("Cells act in the peripheral nervous system.", "Cells act in the central nervous system.", "peripheral"),
+        ("The toxin binds an extracellular domain.", "The toxin binds an intracellular domain.", "extracellular"),
+        # encourage ~ promote against inhibit (WordNet; from memory).
+        ("Warm soil encourages larval growth.", "Warm soil inhibits larval growth.", "encourages"),
+    ],
+)
+def test_site_and_effect_antonyms_are_direction_flips(claim: str, passage: str, said: str) -> None:
+    [finding] = [f for f in compare(claim, passage) if f.code == "direction-flip"]
+    assert finding.claim_cue == said
