@@ -350,3 +350,23 @@ def test_the_same_switch_in_claim_and_passage_is_no_flip() -> None:
 def test_site_and_effect_antonyms_are_direction_flips(claim: str, passage: str, said: str) -> None:
     [finding] = [f for f in compare(claim, passage) if f.code == "direction-flip"]
     assert finding.claim_cue == said
+
+
+def test_a_knockout_group_named_as_subject_is_no_negation() -> None:
+    # "Mice lacking X" names who was studied; BioScope marks negation only where it
+    # negates a statement (Vincze et al., 2008; from memory).
+    claim = "Mice lacking the receptor gain weight faster on a rich diet."
+    passage = "Mice lacking the receptor gained weight faster on a rich diet than wild-type mice."
+    assert [f for f in compare(claim, passage) if f.code == "negation"] == []
+    # A real negation in the passage is still read.
+    denied = "Mice lacking the receptor did not gain weight faster on a rich diet."
+    assert [f.code for f in compare(claim, denied)] == ["negation"]
+
+
+def test_nouns_holding_a_direction_word_are_no_direction() -> None:
+    # "reuptake inhibitors" and "weight gain" name things, not changes (common practice, no source).
+    claim = "Serotonin reuptake inhibitors raise the risk of falls in older adults."
+    passage = "Use of serotonin reuptake inhibitors raised the risk of falls among older adults."
+    assert [f for f in compare(claim, passage) if f.code == "direction-flip"] == []
+    gain = compare("The diet reduced weight gain in rats.", "The diet lowered weight gain in rats.")
+    assert [f for f in gain if f.code == "direction-flip"] == []
