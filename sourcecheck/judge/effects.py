@@ -141,9 +141,13 @@ def _association_disagrees(way: str, words: str, sentence: str) -> list[CueFindi
     if way != "none":
         return []
     found = _REPORTS_ASSOCIATION.search(sentence)
-    if not found:
-        return []
-    said = " ".join(found.group(0).split())
+    if found:
+        said = " ".join(found.group(0).split())
+    else:
+        reported = effect_direction(sentence)  # "promotes", "increased": an effect, unnegated
+        if reported is None or reported[0] == "none":
+            return []
+        said = reported[1]
     message = f'claim says "{words}" (no effect); the source says "{said}"'
     return [CueFinding("negation", words, said, message)]
 

@@ -337,3 +337,21 @@ def test_a_denied_association_in_the_source_agrees_with_a_claimed_absence() -> N
     claim = "Road noise is unrelated to nest desertion."
     assert compare_effects(claim, "Road noise was not associated with nest desertion.") == []
     assert compare_effects("Road noise increases nest desertion.", "Road noise was associated with desertion.") == []
+
+
+def test_a_claimed_absence_against_a_reported_effect_is_a_negation() -> None:
+    # "no known association" against "promote": the source reports an effect the claim
+    # denies (common practice in reading results, no source).
+    [finding] = compare_effects(
+        "Tide height has no known association with the growth of barnacle larvae.",
+        "We show that tide height signals promote the growth of barnacle larvae.",
+    )
+    assert finding.code == "negation" and finding.source_cue == "promote"
+    # A negated effect in the source agrees with the claimed absence.
+    assert (
+        compare_effects(
+            "Tide height has no known association with the growth of barnacle larvae.",
+            "Tide height did not promote the growth of barnacle larvae.",
+        )
+        == []
+    )
