@@ -38,6 +38,7 @@ from sourcecheck.sources._passages import ends_sentence, make_passages
 from sourcecheck.sources._pdf import PdfUnreadable, RawPdf, one_line, read_pdf
 from sourcecheck.sources._printed import printed_page_numbers
 from sourcecheck.sources._refsection import before_reference_heading, cut_reference_sections
+from sourcecheck.sources._sections import run_in_heading
 
 #: How much of page 1 is kept for matching a reference to this source.
 FIRST_PAGE_CHARS = 2000
@@ -107,22 +108,48 @@ def without_front_matter(passages: list[Passage], title: str | None) -> list[Pas
     """
     title_words = title.split() if title and len(title.split()) >= 3 else []
     wanted = " ".join(title_words).lower()
-    kept = []
+    kept: list[Passage] = []
     in_front = True
+    carried: str | None = None  # a section announced by a run-in heading the title hid
     for passage in passages:
         if passage.page == 1 and title_words:
             words = passage.text.split()
             head = " ".join(words[: len(title_words)]).lower()
             if fuzz.ratio(head, wanted) >= TITLE_SIMILARITY:
-                rest = " ".join(words[len(title_words) :])
-                if not rest:
-                    continue
+                words = words[len(title_words) :]
+            elif in_front:
+                words = words[_title_tail(words, title_words) :]
+            if not words:
+                continue
+            if len(words) < len(passage.text.split()):
+                rest = " ".join(words)
+                heading = run_in_heading(rest)
+                carried = heading[0] if heading and not passage.section else carried
                 passage = replace(passage, text=rest)
         if passage.page == 1 and in_front and not ends_sentence(passage.text) and len(passage.text.split()) <= 30:
             continue
+        if carried is not None:
+            if passage.section:
+                carried = None
+            else:
+                passage = replace(passage, section=carried)
         in_front = False
         kept.append(passage)
     return [replace(p, ordinal=i) for i, p in enumerate(kept)]
+
+
+def _title_tail(words: list[str], title_words: list[str]) -> int:
+    """How many leading ``words`` are the end of the title (a title set over two lines,
+    whose last line ran into the next paragraph); 0 when fewer than three are."""
+
+    def key(word: str) -> str:
+        return word.strip(".,:;").lower()
+
+    title = [key(w) for w in title_words]
+    for n in range(min(len(words), len(title)), 2, -1):
+        if [key(w) for w in words[:n]] == title[-n:]:
+            return n
+    return 0
 
 
 def _with_running_lines(text: str, lines: list[list[str]], body: list[list[str]]) -> str:

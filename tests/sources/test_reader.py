@@ -13,8 +13,9 @@ from pathlib import Path
 import pytest
 from pdfminer.high_level import extract_text
 
-from sourcecheck.model import Problem, Source
+from sourcecheck.model import Passage, Problem, Source
 from sourcecheck.sources import read_source
+from sourcecheck.sources._reader import without_front_matter
 from tests.pdf_fixtures import (
     build_pdf,
     encrypted_pdf,
@@ -255,3 +256,30 @@ def test_title_and_author_lines_are_not_evidence(tmp_path: Path, metadata_title:
     if metadata_title:  # with a known title its words are cut; without one the body is never lost
         assert "outer saltmarsh" not in text
     assert [p.ordinal for p in source.passages] == list(range(len(source.passages)))
+
+
+def test_a_title_set_over_two_lines_is_cut_from_both_passages() -> None:
+    # A long title wraps; its last line may stand alone or run into the first paragraph,
+    # where a structured abstract's run-in heading then opens the body (ICMJE headings;
+    # from memory). Neither the title's end nor its loss of the heading may stay.
+    title = "Salt crusts slow the walking of coastal dunes in winter storms"
+    alone = [
+        Passage("a.pdf", 1, "Salt crusts slow the walking", 0),
+        Passage("a.pdf", 1, "of coastal dunes in winter storms.", 1),
+        Passage("a.pdf", 1, "Dunes moved 12 m a year where crusts were broken.", 2, section="results"),
+    ]
+    assert [p.text for p in without_front_matter(alone, title)] == ["Dunes moved 12 m a year where crusts were broken."]
+    run_on = [
+        Passage("a.pdf", 1, "Salt crusts slow the walking", 0),
+        Passage("a.pdf", 1, "coastal dunes in winter storms BACKGROUND Dunes walk inland each winter.", 1),
+        Passage("a.pdf", 1, "Storms move the crest by metres.", 2),
+        Passage("a.pdf", 1, "RESULTS Crusted dunes moved half as far.", 3, section="results"),
+    ]
+    kept = without_front_matter(run_on, title)
+    assert [p.text for p in kept] == [
+        "BACKGROUND Dunes walk inland each winter.",
+        "Storms move the crest by metres.",
+        "RESULTS Crusted dunes moved half as far.",
+    ]
+    assert [p.section for p in kept] == ["background", "background", "results"]
+    assert [p.ordinal for p in kept] == [0, 1, 2]
