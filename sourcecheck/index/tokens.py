@@ -174,9 +174,14 @@ def tokenize(text: str) -> list[str]:
     return [s_stem(t) for t in _TOKEN.findall(folded) if t not in STOP_WORDS]
 
 
-def content_words(text: str) -> set[str]:
-    """The distinct content-word tokens of ``text``."""
-    return set(tokenize(text))
+@lru_cache(maxsize=8192)
+def content_words(text: str) -> frozenset[str]:
+    """The distinct content-word tokens of ``text``.
+
+    Cached: one claim is compared with every candidate passage of the ranker, and one
+    passage with every claim that retrieves it.
+    """
+    return frozenset(tokenize(text))
 
 
 def coverage(claim: str, passage: str) -> float:

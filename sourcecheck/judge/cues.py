@@ -226,12 +226,16 @@ def _segmenter() -> pysbd.Segmenter:
     return pysbd.Segmenter(language="en", clean=False)
 
 
-def _sentence_spans(text: str) -> list[tuple[int, int]]:
-    """Sentence spans by pysbd, located in ``text`` so token offsets stay true to it."""
+@lru_cache(maxsize=2048)
+def _sentence_spans(text: str) -> tuple[tuple[int, int], ...]:
+    """Sentence spans by pysbd, located in ``text`` so token offsets stay true to it.
+
+    Cached: the wording cues and the effect check both read the best passage's sentences.
+    """
     try:
         sentences = _segmenter().segment(text)
     except Exception:  # pysbd fails on odd input now and then; one sentence is a safe reading
-        return [(0, len(text))]
+        return ((0, len(text)),)
     spans, cursor = [], 0
     for sentence in sentences:
         piece = sentence.strip()
@@ -241,9 +245,9 @@ def _sentence_spans(text: str) -> list[tuple[int, int]]:
         spans.append((at, at + len(piece)))
         cursor = at + len(piece)
     if not spans:
-        return [(0, len(text))]
+        return ((0, len(text)),)
     spans[-1] = (spans[-1][0], len(text))
-    return spans
+    return tuple(spans)
 
 
 # --- phrase matching ------------------------------------------------------------------------

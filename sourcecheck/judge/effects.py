@@ -160,7 +160,8 @@ def compare_effects(claim: str, passage: str) -> list[CueFinding]:
         return []
     way, words = said
     sentence = closest_sentence(claim, passage)
-    directions = {e.direction for e in estimates(sentence)} - {None}
+    found = estimates(sentence)
+    directions = {e.direction for e in found} - {None}
     if not directions:
         return _association_disagrees(way, words, sentence)
     if len(directions) != 1:
@@ -168,7 +169,7 @@ def compare_effects(claim: str, passage: str) -> list[CueFinding]:
     (reported,) = directions
     if reported == way:
         return []
-    estimate = next(e for e in estimates(sentence) if e.direction == reported)
+    estimate = next(e for e in found if e.direction == reported)
     if way == "none":
         message = f'claim says "{words}" (no effect); the source reports {estimate.text}, {_SAYS[reported]}'
         return [CueFinding("negation", words, estimate.text, message)]
