@@ -13,7 +13,8 @@ runs sourcecheck's pipeline on the draft and the PDFs exactly as ``sourcecheck c
 - evidence hit@1 and hit@3: the first (first three) passages found for a cited work hold
   one of the annotators' rationale sentences, over the pairs that have rationales;
 - AUROC of the backing score, SUPPORT against everything else (CONTRADICT, cited without
-  evidence, and decoy citations), as the Mann-Whitney U statistic;
+  evidence, and decoy citations), as the Mann-Whitney U statistic; then against the
+  dataset's own labels only (CONTRADICT and NEI, no decoys), and against each label;
 - the bands given to each gold label.
 
 The split is the one fixed by claim id in the corpus (the calibration was fitted on
@@ -97,6 +98,9 @@ def main(argv: list[str] | None = None) -> int:
     print(f"evidence hit@3  {np.mean(hit3):.3f}")
     score_array, label_array = np.array(scores), np.array(labels)
     print(f"AUROC, SUPPORT against the rest  {auroc(score_array, np.array(support)):.3f}")
+    cited = label_array != "UNRELATED"  # the dataset's own labels, without the decoy citations
+    if cited.any():
+        print(f"  SUPPORT against CONTRADICT + NEI {auroc(score_array[cited], label_array[cited] == 'SUPPORT'):.3f}")
     for other in scifact_corpus.LABELS[1:]:
         pair = (label_array == "SUPPORT") | (label_array == other)
         if pair.any():

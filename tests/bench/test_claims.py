@@ -41,6 +41,8 @@ def test_benchmark_prints_hits_auroc_and_bands_per_label(tmp_path: Path, capsys:
     # Each abstract has at most three passages, so a rationale is always among the top three.
     assert "evidence hit@3  1.000" in printed
     assert re.search(r"AUROC, SUPPORT against the rest  (0\.\d{3}|1\.000)", printed)
+    # The target's own reading (SUPPORT against CONTRADICT and NEI) is printed without decoys.
+    assert re.search(r"SUPPORT against CONTRADICT \+ NEI (0\.\d{3}|1\.000)", printed)
     rows = {
         m.group(1): [int(n) for n in m.group(2).split()] for m in re.finditer(r"^  (\w+) +([\d ]+)$", printed, re.M)
     }
