@@ -20,7 +20,10 @@ Matching rules (a claim quantity is *found* when one evidence quantity satisfies
   spread, the spreads must agree too;
 - a bound ("p < 0.05") is found when the source's statement implies it ("p = 0.03",
   "p < 0.01"); a stated value ("p = 0.03") is not found in a bound ("p < 0.05");
-- a sign counts only when both numbers carry one ("fell by 0.3" is "−0.3").
+- a sign counts only when both numbers carry one ("fell by 0.3" is "−0.3");
+- a scale word multiplies ("1.2 million" is 1,200,000 and rounds to the nearest 0.1
+  million), and an amount of money is its own kind per currency ("$5 billion" and "5
+  billion dollars" are one figure; "€5 billion" is another kind).
 
 A number not found is *different* when the best passage holds a value of the same kind
 that contradicts it (no overlap; the one sharing most context words is named), and
@@ -165,6 +168,15 @@ _RANGE_AND = re.compile(r"\s+and\s+|\s*[–—‒]\s*|-(?=[\d.−])")
 _RANGE_CI = re.compile(r"\s*[,;–—‒]\s*|-(?=[\d.−])|\s+to\s+")
 _LIST_GAP = re.compile(r"\s*(?:,\s*(?:and\s+|or\s+)?|and\s+|or\s+|&\s*)$")
 _CONTEXT_CHARS = 60
+# "5 billion", "2.5 million dollars": a scale word multiplies the number before it. The
+# short scale of current English usage (a billion is 10^9; Chicago Manual of Style, 17th
+# ed., 9.24; from memory).
+_SCALE_WORD = re.compile(r"\s+(?P<word>thousand|million|billion|trillion)\b", re.IGNORECASE)
+_SCALES = {"thousand": 1e3, "million": 1e6, "billion": 1e9, "trillion": 1e12}
+# A currency written before the amount ("$5", "US$ 750", "€12"), or named after it.
+_CURRENCY_BEFORE = re.compile(r"(?P<cur>US\$|\$|€|£|¥)\s?$")
+_CURRENCY_SYMBOLS = {"US$": "$", "$": "$", "€": "€", "£": "£", "¥": "¥"}
+_CURRENCY_WORDS = {"dollar": "$", "usd": "$", "euro": "€", "eur": "€", "gbp": "£", "yen": "¥", "jpy": "¥"}
 
 
 @dataclass(frozen=True)
@@ -223,6 +235,8 @@ class _Reading:
     tag: str = ""  # "%", "pp", "fold", "ratio" from what follows
     divisor: float = 1.0  # "3:1"
     word: str = ""  # the word after, for counts
+    multiplier: float = 1.0  # "million" after the number
+    currency: str = ""  # "$", "€", "£", "¥"
 
 
 def _read_number(match: re.Match[str]) -> _Number:
@@ -265,6 +279,9 @@ def _role(text: str, start: int, value: float) -> tuple[str, str, int]:
 
 def _read_suffix(text: str, reading: _Reading, pos: int) -> int:
     """Read what follows a number at ``pos`` into ``reading``; return where it ends."""
+    if m := _SCALE_WORD.match(text, pos):
+        reading.multiplier = _SCALES[m.group("word").lower()]
+        pos = m.end()
     if m := _POINTS.match(text, pos):
         reading.tag = "pp"
         return m.end()
@@ -306,6 +323,8 @@ def _readings(text: str) -> list[_Reading]:
             continue
         role, comparator, opening = _role(text, first.start, first.value)
         reading = _Reading(opening, first.end, first, comparator=comparator, role=role)
+        if not role and (money := _CURRENCY_BEFORE.search(text, max(0, first.start - 4), first.start)):
+            reading.currency, reading.start = _CURRENCY_SYMBOLS[money.group("cur")], money.start()
         end = first.end
         if (spread := _SPREAD.match(text, end)) and index < len(numbers) and numbers[index].start() == spread.end():
             reading.spread = _read_number(numbers[index])
@@ -332,6 +351,8 @@ def _readings(text: str) -> list[_Reading]:
             reading.high = second.low
             if reading.unit is None and reading.tag == "":
                 reading.unit, reading.tag = second.unit, second.tag
+            if reading.multiplier == 1.0:
+                reading.multiplier = second.multiplier  # "2-3 million"
             reading.word = second.word  # "12 to 15 plots": the word after the range, never "to"
         reading.end = end
         readings.append(reading)
@@ -368,12 +389,16 @@ def _quantity(text: str, reading: _Reading) -> Quantity:
         kind, scale, unit_text = "%", 100.0, "fraction"
     elif reading.role == "CI":
         pass
-    elif low.plain_year and (high is None or high.plain_year):
+    elif low.plain_year and (high is None or high.plain_year) and reading.multiplier == 1.0 and not reading.currency:
         kind = "year"
     else:
         kind = s_stem(reading.word.lower()) if reading.word else ""
+        currency = reading.currency or _CURRENCY_WORDS.get(kind, "")
+        if currency:  # "$5 billion" and "5 billion dollars" are one kind; "5 billion" alone a count
+            kind, unit_text = "currency:" + currency, currency
     if reading.tag == "ratio":
         scale /= reading.divisor
+    scale *= reading.multiplier
     decimals = min(low.decimals, high.decimals) if high else low.decimals
     window = text[max(0, reading.start - _CONTEXT_CHARS) : reading.end + _CONTEXT_CHARS]
     return Quantity(

@@ -324,3 +324,47 @@ def test_one_in_n_matches_the_rounded_percentage_and_flags_another_ratio() -> No
     assert unsupported_numbers("About one in five nests failed.", "Of the nests, 21% failed.", []) == []
     [finding] = unsupported_numbers("One in two trials stop early.", "One in three trials stop early.", [])
     assert finding.counterpart is not None and finding.counterpart.text == "One in three"
+
+
+@pytest.mark.parametrize(
+    ("text", "value"),
+    [
+        ("1.2 million people", 1.2e6),
+        ("3 thousand nests", 3e3),
+        ("$5 billion", 5e9),
+        ("between 2 and 3 million plots", 2e6),
+    ],
+)
+def test_a_scale_word_multiplies_the_number(text: str, value: float) -> None:
+    # Short scale, as English-language style guides use it: a million is 10^6, a billion
+    # 10^9 (Chicago Manual of Style, 17th ed., 9.24-9.25; from memory).
+    assert _one(text).value == pytest.approx(value)
+
+
+def test_a_scaled_number_matches_the_same_figure_in_digits_and_rounds_in_its_own_unit() -> None:
+    # "1.2 million" is written to the nearest 0.1 million, so it covers 1,150,000-1,250,000
+    # (common practice, no source).
+    assert unsupported_numbers("About 1.2 million people.", "We counted 1,230,000 people.", []) == []
+    [finding] = unsupported_numbers("About 1.2 million people.", "We counted 1,300,000 people.", [])
+    assert finding.counterpart is not None
+
+
+def test_a_scaled_number_is_not_found_in_the_bare_digits() -> None:
+    # "$5 billion" is not backed by "5 sites" (common practice, no source).
+    [finding] = unsupported_numbers("The plan saves $5 billion.", "The plan covered 5 sites.", [])
+    assert finding.counterpart is None
+
+
+def test_amounts_of_money_compare_across_scale_words_and_currency_forms() -> None:
+    # "$" and "dollars" name one currency (ISO 4217 code USD; from memory).
+    assert unsupported_numbers("It would save $5 billion.", "It would save 5 billion dollars.", []) == []
+    [finding] = unsupported_numbers("It would save up to $5 billion.", "It would save as much as $750 million.", [])
+    assert finding.counterpart is not None and finding.counterpart.text == "$750 million"
+    # A different currency is another kind: no counterpart, only "not found".
+    [finding] = unsupported_numbers("It would save €5 billion.", "It would save $5 billion.", [])
+    assert finding.counterpart is None
+
+
+def test_a_scale_word_before_a_unit_scales_the_converted_value() -> None:
+    # 1 ha = 10^4 m^2 (SI Brochure, 9th ed., Table 8; from memory), so 1.2 million ha = 1.2 × 10^10 m^2.
+    assert _one("1.2 million ha").value == pytest.approx(1.2e10)
