@@ -16,9 +16,12 @@ stream (lists in ``cue_lists.toml``), pure Python and fast, so they can run on e
   window (3 words before, 6 after, inside one clause) that holds at least two of the other
   side's content words (one if the claim has only one), and the other side does not negate
   those words. So an unrelated negation elsewhere in the passage does not count, nor does a
-  claim that negates as well. Double negation is handled only in its plainest form: "not"/
-  "no"/"never" directly before "without", "fail to", "lack of" cancels both ("did not fail
-  to"). Affixal negation ("unchanged", "not unlike") is not read at all.
+  claim that negates as well. The words before a cue stop at a comma ("CCL19, which lacks
+  anchoring residues" does not negate CCL19), a contrastive "but not" / "and not" negates
+  only the phrase up to the next comma, and an idiom that starts inside a cue wins over it
+  ("is not" + "not restricted to": a widening, not a denial). Double negation is handled
+  only in its plainest form: "not"/"no"/"never" directly before "without", "fail to",
+  "lack of" cancels both ("did not fail to"). Affixal negation ("unchanged", "not unlike") is not read at all.
 - **direction-flip**: for each content word the claim and passage share, the nearest
   direction word in the same clause (within 6 words; ties go to the word before, as in
   "increased density") is looked up on each side. The claim flips the passage when more
@@ -60,6 +63,8 @@ _CLAUSE_WORDS = frozenset(["but", "whereas", "while", "although", "though"])
 _WORD = re.compile(r"[^\W_]+(?:['’][^\W_]+)*(?:[.,]\d+)*|[.;:!?]")
 _NEGATION_BEFORE = 3  # words before a negation cue inside its scope
 _NEGATION_AFTER = 6  # words after it
+_SCOPE_COMMA = True
+_CONTRASTIVE = frozenset(["but", "and"])  # "but not X", "and not X": X alone is negated
 _NEGATED_GAP = 2  # a cue at most this many words after a negation is negated
 _DIRECTION_WINDOW = 6  # words between a direction cue and the word it is about
 _WHOLE_PASSAGE_KINDS = frozenset(["species", "in-vitro"])
@@ -304,17 +309,28 @@ class _Matcher:
                 return False
         return True
 
+    def _longest(self, toks: Sequence[_Tok], i: int) -> tuple[int, frozenset[Label]] | None:
+        best: tuple[int, frozenset[Label]] | None = None
+        for pattern, labels in self._exact.get(toks[i].stem, []) + self._prefix.get(toks[i].text[:3], []):
+            if (best is None or len(pattern) > best[0]) and self._fits(pattern, toks, i):
+                best = (len(pattern), labels)
+        return best
+
     def find(self, toks: Sequence[_Tok]) -> list[_Match]:
+        """Longest matches, left to right; an idiom that starts inside a match and runs past
+        it wins ("is not" + "not restricted to": the idiom, so no negation)."""
         found: list[_Match] = []
         i = 0
         while i < len(toks):
-            best: tuple[int, frozenset[Label]] | None = None
-            for pattern, labels in self._exact.get(toks[i].stem, []) + self._prefix.get(toks[i].text[:3], []):
-                if (best is None or len(pattern) > best[0]) and self._fits(pattern, toks, i):
-                    best = (len(pattern), labels)
+            best = self._longest(toks, i)
             if best is None:
                 i += 1
                 continue
+            for j in range(i + 1, i + best[0]):
+                inner = self._longest(toks, j)
+                if inner is not None and ("pseudo",) in inner[1] and j + inner[0] > i + best[0]:
+                    i, best = j, inner
+                    break
             found.append(_Match(i, i + best[0], best[1]))
             i += best[0]
         return found
@@ -424,18 +440,34 @@ class _Text:
             if (kind,) in c.labels and (sentences is None or self.toks[c.start].sentence in sentences)
         ]
 
+    def _comma_between(self, i: int, j: int) -> bool:
+        """Whether a comma stands between tokens ``i`` and ``j`` (i before j)."""
+        return "," in self.raw[self.toks[i].end : self.toks[j].start]
+
     def negation_scopes(self) -> list[tuple[_Match, set[str]]]:
-        """Each negation cue with the content roots in its window, inside its clause."""
+        """Each negation cue with the content roots in its window, inside its clause.
+
+        The words before a cue are its subject only up to a comma ("CCL19, which lacks
+        anchoring residues": the residues are negated, not CCL19's being a ligand). A
+        contrastive "but not" / "and not" negates only the phrase up to the next comma
+        ("memory, but not naive, T cells enhance ...").
+        """
         content = set(self.content)
         scopes = []
         for n in self.negations:
             clause = self.toks[n.start].clause
-            lo, hi = max(0, n.start - _NEGATION_BEFORE), min(len(self.toks), n.end + _NEGATION_AFTER)
-            roots = {
-                self.toks[i].root
-                for i in range(lo, hi)
-                if i in content and self.toks[i].clause == clause and not n.start <= i < n.end
-            }
+            contrastive = n.start > 0 and self.toks[n.start - 1].text in _CONTRASTIVE
+            before = 0 if contrastive else _NEGATION_BEFORE
+            lo, hi = max(0, n.start - before), min(len(self.toks), n.end + _NEGATION_AFTER)
+            roots = set()
+            for i in range(lo, hi):
+                if i not in content or self.toks[i].clause != clause or n.start <= i < n.end:
+                    continue
+                if i < n.start and _SCOPE_COMMA and self._comma_between(i, n.start):
+                    continue
+                if i >= n.end and contrastive and self._comma_between(n.end - 1, i):
+                    continue
+                roots.add(self.toks[i].root)
             scopes.append((n, roots))
         return scopes
 

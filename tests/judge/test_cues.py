@@ -370,3 +370,34 @@ def test_nouns_holding_a_direction_word_are_no_direction() -> None:
     assert [f for f in compare(claim, passage) if f.code == "direction-flip"] == []
     gain = compare("The diet reduced weight gain in rats.", "The diet lowered weight gain in rats.")
     assert [f for f in gain if f.code == "direction-flip"] == []
+
+
+def test_a_relative_clause_negates_what_follows_the_comma_not_the_subject_before_it() -> None:
+    # BioScope scopes a negation over the phrase it governs (Vincze et al., 2008; from
+    # memory): in "the second receptor ligand, CF-9, which lacks a tail", only the tail is
+    # negated, not CF-9 being a ligand.
+    claim = "CF-9 is a ligand for the RX receptor."
+    passage = "CF-4 resembles the second RX receptor ligand, CF-9, which lacks a tail and stays soluble."
+    assert "negation" not in _codes(claim, passage)
+    # Without the comma the words before the cue are its subject and count.
+    assert "negation" in _codes("Warming raised nest density.", "Warming never raised nest density.")
+
+
+def test_but_not_negates_only_the_phrase_it_introduces() -> None:
+    # "A, but not B, ..." negates B alone (BioScope scope of contrastive "not"; Vincze et
+    # al., 2008; from memory).
+    claim = "Memory T cells raise chemokine production in the lung."
+    passage = "The response of memory, but not naive, T cells raised chemokine production in the lung."
+    assert "negation" not in _codes(claim, passage)
+    denied = "Naive T cells, but not memory T cells raised chemokine production in the lung."
+    assert "negation" in _codes(claim, denied)
+
+
+@pytest.mark.parametrize("widening", ["is not restricted to", "is not limited to", "is not just", "is not confined to"])
+def test_not_restricted_to_widens_a_finding_rather_than_denying_it(widening: str) -> None:
+    # BioScope does not annotate "not only" as negation (Vincze et al., 2008; from memory);
+    # "not restricted to" and its kin by analogy (no source). The idiom wins over the
+    # auxiliary "is not" it overlaps.
+    claim = "The variant is associated with joint disease in carriers of the B27 allele."
+    passage = f"The association of the variant with joint disease {widening} carriers of the B27 allele."
+    assert "negation" not in _codes(claim, passage)
