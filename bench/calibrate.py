@@ -141,7 +141,14 @@ def fit_ranker(prepared: Prepared, pairs: list[Pair], weight: float) -> Ranker:
         rows = []
         for hit in hits:
             scaled = hit.bm25 / lexical_top if lexical_top > 0 else 0.0
-            values = rank_features(pair.query, hit.passage, hit.dense, scaled, hit.coverage)
+            values = rank_features(
+                pair.query,
+                hit.passage,
+                hit.dense,
+                scaled,
+                hit.coverage,
+                opens_source=prepared.index.opens_source(hit.passage),
+            )
             rows.append((holds_rationale(hit.passage.text, pair.rationales), np.array(values)))
             all_values.append(np.array(values))
         for good, a in rows:

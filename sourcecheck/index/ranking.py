@@ -6,6 +6,7 @@ for two claims in three, no better than BM25 alone, because the introduction res
 the claim's topic as closely as the results state the finding. The ranker adds what a
 reader uses to find the finding: the share of the claim's words in the passage and in
 its best sentence, the role of the section it stands in, where in that section it falls,
+whether it opens the work,
 whether it reports a statistic, and wording that reports a finding or sets the scene.
 Only near-ties of the first stage are reordered, and never past a passage whose best
 sentence covers the claim clearly better (see search.py). Its weights are fitted by
@@ -30,6 +31,7 @@ RANK_FEATURES = (
     "coverage",
     "sentence_coverage",
     "place",
+    "opens_source",
     "reports_finding",
     "sets_background",
     "reports_statistics",
@@ -82,8 +84,20 @@ def sentence_coverage(query: str, text: str) -> float:
     return max((coverage(query, s) for s in _SENTENCE_END.split(text) if s.strip()), default=0.0)
 
 
-def features(query: str, passage: Passage, dense: float, bm25_scaled: float, passage_coverage: float) -> list[float]:
-    """The passage's ranking features in RANK_FEATURES order."""
+def features(
+    query: str,
+    passage: Passage,
+    dense: float,
+    bm25_scaled: float,
+    passage_coverage: float,
+    opens_source: bool = False,
+) -> list[float]:
+    """The passage's ranking features in RANK_FEATURES order.
+
+    ``opens_source``: the passage is its work's first (after the front matter). A work
+    opens by setting the scene, so its first passage restates the topic of a claim more
+    often than it states the finding; the fitted weight is negative.
+    """
     roles = [float(passage.section == role) for role in SECTION_ROLES]
     return [
         dense,
@@ -91,6 +105,7 @@ def features(query: str, passage: Passage, dense: float, bm25_scaled: float, pas
         passage_coverage,
         sentence_coverage(query, passage.text),
         passage.place,
+        float(opens_source),
         float(bool(_OWN_FINDING.search(passage.text))),
         float(bool(_BACKGROUND.search(passage.text))),
         float(bool(_STATISTIC.search(passage.text))),

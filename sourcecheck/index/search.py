@@ -41,6 +41,11 @@ class EvidenceIndex:
         for position, passage in enumerate(self.passages):
             self._by_source.setdefault(passage.source, []).append(position)  # type: ignore[arg-type]
         self._by_source = {k: np.asarray(v) for k, v in self._by_source.items()}
+        self._first_ordinal = {k: min(self.passages[i].ordinal for i in v) for k, v in self._by_source.items()}
+
+    def opens_source(self, passage: Passage) -> bool:
+        """Whether ``passage`` is the first of its source in reading order."""
+        return self._first_ordinal.get(passage.source) == passage.ordinal
 
     def _lexical_scores(self, query: str) -> np.ndarray:
         """BM25 scores of the query over all passages, kept for the query searched last.
@@ -139,7 +144,9 @@ class EvidenceIndex:
         for i in order:
             passage = self.passages[int(candidates[i])]
             share = coverage(query, passage.text)
-            values = rank_features(query, passage, float(dense[i]), float(scaled[i]), share)
+            values = rank_features(
+                query, passage, float(dense[i]), float(scaled[i]), share, opens_source=self.opens_source(passage)
+            )
             if not ranked:
                 floor = values[SENTENCE_COVERAGE] - ranker.coverage_slack
             hit = Hit(

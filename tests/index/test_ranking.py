@@ -16,13 +16,15 @@ def _passage(text: str, section: str = "", place: float = 0.0) -> Passage:
 def test_feature_vector_follows_the_declared_order() -> None:
     passage = _passage("We found that heron nests rose by 18%.", section="results", place=0.25)
     values = features("heron nests rose", passage, dense=0.8, bm25_scaled=0.6, passage_coverage=0.9)
-    assert len(values) == len(RANK_FEATURES) == 8 + len(SECTION_ROLES)
+    assert len(values) == len(RANK_FEATURES) == 9 + len(SECTION_ROLES)
     named = dict(zip(RANK_FEATURES, values, strict=True))
     assert named["dense"] == 0.8
     assert named["bm25"] == 0.6
     assert named["coverage"] == 0.9
     assert named["sentence_coverage"] == 1.0  # all three content words in the one sentence
     assert named["place"] == 0.25
+    assert named["opens_source"] == 0.0  # not said to open its work
+    assert features("heron nests rose", passage, 0.8, 0.6, 0.9, opens_source=True)[RANK_FEATURES.index("opens_source")]
     assert named["reports_finding"] == 1.0  # "we found"
     assert named["sets_background"] == 0.0
     assert named["reports_statistics"] == 1.0  # "18%"

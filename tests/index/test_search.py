@@ -148,3 +148,18 @@ def test_lexical_ceiling_is_the_best_bm25_score_over_the_folder() -> None:
     assert hit.fused == pytest.approx((1 - DENSE_WEIGHT) * hit.bm25 / index.lexical_ceiling(query))
     assert hit.bm25 < index.lexical_ceiling(query)
     assert EvidenceIndex([], np.zeros((0, 0))).lexical_ceiling(query) == 0.0
+
+
+def test_the_first_passage_of_each_source_is_known_and_a_ranker_can_weigh_it() -> None:
+    # Ordinals count up in reading order from wherever the front matter ended, per source.
+    passages = [
+        Passage("a.pdf", 1, "Herons were long thought to avoid dredged shores.", 2),
+        Passage("a.pdf", 1, "Nest counts rose once dredging stopped.", 3),
+        Passage("b.pdf", 1, "Gulls nest on roofs.", 0),
+    ]
+    index = EvidenceIndex(passages, np.stack([_unit(0.80), _unit(0.79), _unit(0.1)]))
+    assert [index.opens_source(p) for p in passages] == [True, False, True]
+    plain = index.search(SILENT_QUERY, QUERY, source="a.pdf", k=2)
+    assert plain[0].passage.ordinal == 2
+    later = Ranker({"dense": 1.0, "opens_source": -1.0}, margin=0.05)
+    assert index.search(SILENT_QUERY, QUERY, source="a.pdf", k=2, ranker=later)[0].passage.ordinal == 3
