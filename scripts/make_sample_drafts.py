@@ -244,6 +244,8 @@ SECTIONS: tuple[tuple[str, tuple[Paragraph, ...]], ...] = (
                 cite("[1]", 1),
                 ". Scrapes beside footpaths held more nests than scrapes far from paths ",
                 cite("[1]", 1),
+                ". Nest density was lower on scraped plots than on unscraped controls ",
+                cite("[1]", 1),
                 ". Nesting females avoided soils whose penetration resistance exceeded 2.5 MPa ",
                 cite("[2]", 2),
                 ". Nesting females also preferred scrapes close to flowering heather over scrapes further away ",

@@ -692,6 +692,11 @@ def _place_scope(claim: _Text, passage: _Text, sentences: set[int]) -> CueFindin
     return None
 
 
+def sentences(text: str) -> list[str]:
+    """The sentences of ``text`` (pysbd), as written."""
+    return [text[a:b] for a, b in _sentence_spans(text)]
+
+
 def best_sentence(passage: str, claim_roots: set[str]) -> str:
     """The passage's sentence that shares most content words with the claim.
 

@@ -8,6 +8,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, replace
 
+from sourcecheck.judge.comparisons import compare_groups
 from sourcecheck.judge.cues import CueFinding, compare
 from sourcecheck.judge.effects import compare_effects
 from sourcecheck.judge.numbers import NumberFinding, unsupported_numbers
@@ -36,7 +37,7 @@ class Features:
     coverage: float
     numbers: tuple[NumberFinding, ...]
     cues: tuple[CueFinding, ...] = ()
-    effects: tuple[CueFinding, ...] = ()  # a ratio estimate against the claim's direction
+    effects: tuple[CueFinding, ...] = ()  # a ratio estimate or two groups' values against the claim
 
     @property
     def number_absent(self) -> bool:
@@ -77,10 +78,14 @@ def features_of(claim: str, hits: list[Hit]) -> Features:
     best = hits[0]
     findings = unsupported_numbers(claim, best.passage.text, [h.passage.text for h in hits[1:]])
     cues = compare(claim, best.passage.text)
+    worded = {c.code for c in cues}
+    effects = [f for f in compare_effects(claim, best.passage.text) if f.code not in worded]
+    if "direction-flip" not in worded | {f.code for f in effects}:
+        effects += compare_groups(claim, best.passage.text)
     return Features(
         dense=max(h.dense for h in hits),
         coverage=max(h.coverage for h in hits),
         numbers=tuple(findings),
         cues=tuple(cues),
-        effects=tuple(f for f in compare_effects(claim, best.passage.text) if f.code not in {c.code for c in cues}),
+        effects=tuple(effects),
     )
