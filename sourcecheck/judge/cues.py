@@ -734,7 +734,7 @@ _EFFECT_POLES = {
 _NOUN_BEFORE = frozenset(["of", "in", "from"])
 # Words that state there is no effect (common practice, no source).
 _NO_EFFECT = re.compile(
-    r"\b(?:similar|same|unrelated|independent of|unchanged|incapable of"
+    r"\b(?:similar|same|unrelated|independent of|unchanged|incapable of|ineffective|inactive against"
     r"|no (?:(?:known|significant|clear|detectable|apparent) )?(?:difference|effect|association|change|impact|"
     r"relationship|link|increase|decrease|reduction)|not (?:associated|related|linked|affect\w*|change\w*|differ\w*)"
     r"|does not|did not|do not|has no|have no|had no)\b",

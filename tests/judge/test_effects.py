@@ -355,3 +355,14 @@ def test_a_claimed_absence_against_a_reported_effect_is_a_negation() -> None:
         )
         == []
     )
+
+
+def test_ineffective_is_a_claimed_absence_of_effect() -> None:
+    # "ineffective" is the direct antonym of "effective" (WordNet, Fellbaum 1998; from
+    # memory): a claim that a treatment is ineffective denies the effect a source reports.
+    [finding] = compare_effects(
+        "Mowing is ineffective at reducing gorse cover.",
+        "Mowing twice a year can reduce gorse cover on lowland heath.",
+    )
+    assert finding.code == "negation" and finding.claim_cue == "ineffective" and finding.source_cue == "reduce"
+    assert compare_effects("Mowing is ineffective at reducing gorse cover.", "Mowing did not reduce gorse cover.") == []
