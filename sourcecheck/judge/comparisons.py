@@ -17,7 +17,8 @@ groups apart are kept ("dense" against "sparse").
 
 How the source is read: in the sentences of the best passage that name both groups, each
 value (a percentage, a count, a measured quantity) belongs to the group whose telling
-word is closest to it; a value with both groups' words equally close belongs to neither.
+word is closest to it; a value with both groups' words equally close belongs to neither,
+and a value that states a change ("fell by 12%") is not a level and is left out.
 The first value of each group, of one kind, are compared; values within the rounding of
 the less precise one are equal and say nothing. The finding names both values, so the
 reader sees what was compared.
@@ -42,6 +43,13 @@ _GROUP_WORDS = 4  # content words that make up a group's phrase
 _VALUE_WINDOW = 50  # characters either side of a value in which its group is named
 # Kinds a comparison between groups is stated in; p-values, sample sizes and intervals are not.
 _NOT_COMPARED = ("p-value", "n", "CI", "year")
+# A value that is a change ("fell by 12%", "a reduction of 5%") is not a level of its group:
+# "lower in A" and "fell by more in A" are different claims (common practice, no source).
+_CHANGE_BEFORE = re.compile(
+    r"\bby\s*$|\b(?:reduc|decreas|increas|declin|fell|fall|rose|rise|drop|gain|loss|lost|chang|improv|worsen)\w*"
+    r"[^.;\d]{0,25}$",
+    re.IGNORECASE,
+)
 
 
 def _words(text: str) -> list[tuple[str, int, int]]:
@@ -126,7 +134,7 @@ def _values(sentence: str, first: set[str], second: set[str]) -> tuple[Quantity,
         if quantity.kind in _NOT_COMPARED or quantity.high is not None or quantity.comparator != "=":
             continue
         at = sentence.find(quantity.text)
-        if at < 0:
+        if at < 0 or _CHANGE_BEFORE.search(sentence[max(0, at - 40) : at]):
             continue
         near = [_nearest(sentence, at, at + len(quantity.text), words) for words in (first, second)]
         if near[0] is not None and (near[1] is None or near[0] < near[1]):

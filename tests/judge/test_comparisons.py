@@ -66,3 +66,10 @@ def test_values_of_different_kinds_are_not_compared() -> None:
     passage = "In dense aggregations 27% of cells were parasitised, against 11 cells in sparse aggregations."
     claim = "Cells in sparse aggregations were parasitised more often than those in dense aggregations."
     assert compare_groups(claim, passage) == []
+
+
+def test_changes_are_not_levels() -> None:
+    # "Fell by 12% in A against 5% in B" says how much each group changed, not which is
+    # lower (common practice, no source).
+    passage = "Nest density fell by 12% on scraped plots, against 5% on unscraped controls."
+    assert compare_groups("Nest density was lower on scraped plots than on unscraped controls.", passage) == []
