@@ -27,8 +27,8 @@ Matching rules (a claim quantity is *found* when one evidence quantity satisfies
 
 A number not found is *different* when the best passage holds a value of the same kind
 that contradicts it (no overlap; the one sharing most context words is named), and
-*absent* otherwise. Decimal commas ("12,5") are not read as decimals: a comma is a
-thousands separator ("12,000") or punctuation.
+*absent* otherwise. A comma is a decimal comma where it can be nothing else ("12,5",
+"0,125", "3,14159"); before exactly three digits it is a thousands separator ("12,000").
 """
 
 from __future__ import annotations
@@ -45,7 +45,16 @@ from sourcecheck.judge.units import Unit, read_unit
 _SUPERSCRIPTS = "⁰¹²³⁴⁵⁶⁷⁸⁹"
 _SUP_TO_ASCII = str.maketrans(_SUPERSCRIPTS + "⁻", "0123456789-")
 _GROUP_SPACE = "\u00a0\u2009\u202f"  # no-break, thin, narrow no-break space (SI Brochure 5.4.4)
-_DIGITS = rf"(?:\d{{1,3}}(?:,\d{{3}})+(?!\d)|\d{{1,3}}(?:[{_GROUP_SPACE}]\d{{3}})+(?!\d)|\d+)(?:\.\d+)?|\.\d+"
+# A comma followed by one, two or four or more digits (or after a lone 0) can only be a
+# decimal comma ("12,5 %", "0,125"): the SI Brochure allows the comma on the line as the
+# decimal marker (9th ed., 5.4.2; from memory). Three digits after a comma ("12,500") stay
+# a thousands group, the English reading.
+_DECIMAL_COMMA = r"0,\d+(?![\d,])|\d+,\d{1,2}(?![\d,])|\d{1,3},\d{4,}(?![\d,])"  # not "2001,2003"
+_DIGITS = (
+    rf"(?:\d{{1,3}}(?:,\d{{3}})+(?![\d,])|{_DECIMAL_COMMA}|\d{{1,3}}(?:[{_GROUP_SPACE}]\d{{3}})+(?!\d)|\d+)"
+    rf"(?:\.\d+)?|\.\d+"
+)
+_DECIMAL_COMMA_WHOLE = re.compile(_DECIMAL_COMMA)
 # One number: a power of ten ("10^-4", "10⁻⁴"), or digits with an optional exponent
 # ("1.2 × 10^3", "1.2×10³", "1.2 x 10-3", "1.2e-3"). A sign is a sign only before a digit
 # and not after a word or number ("12-15" is a range, "COVID-19" a name).
@@ -245,7 +254,8 @@ def _read_number(match: re.Match[str]) -> _Number:
         exponent = int((match.group("pexp") or match.group("psup")).translate(_SUP_TO_ASCII).replace("−", "-"))
         return _Number(match.start(), match.end(), sign * 10.0**exponent, -exponent, bool(match.group("sign")), False)
     raw = match.group("num")
-    digits = re.sub(rf"[,{_GROUP_SPACE}]", "", raw)
+    decimal_comma = _DECIMAL_COMMA_WHOLE.fullmatch(raw) is not None
+    digits = raw.replace(",", ".") if decimal_comma else re.sub(rf"[,{_GROUP_SPACE}]", "", raw)
     decimals = len(digits.split(".")[1]) if "." in digits else 0
     exponent_text = next((match.group(g) for g in ("exp", "sup", "dexp", "eexp") if match.group(g)), None)
     exponent = int(exponent_text.translate(_SUP_TO_ASCII).replace("−", "-")) if exponent_text else 0

@@ -368,3 +368,26 @@ def test_amounts_of_money_compare_across_scale_words_and_currency_forms() -> Non
 def test_a_scale_word_before_a_unit_scales_the_converted_value() -> None:
     # 1 ha = 10^4 m^2 (SI Brochure, 9th ed., Table 8; from memory), so 1.2 million ha = 1.2 × 10^10 m^2.
     assert _one("1.2 million ha").value == pytest.approx(1.2e10)
+
+
+@pytest.mark.parametrize(
+    ("text", "value", "decimals"),
+    [("rose by 12,5 %", 12.5, 1), ("p < 0,05", 0.05, 2), ("3,14159 units", 3.14159, 5), ("12,50 %", 12.5, 2)],
+)
+def test_a_comma_that_can_only_be_a_decimal_marker_is_read_as_one(text: str, value: float, decimals: int) -> None:
+    # The SI Brochure (9th ed., 5.4.2; from memory) allows the comma on the line as the
+    # decimal marker; before one, two or four or more digits a comma cannot group thousands.
+    found = quantities(text)[0]
+    assert found.value == pytest.approx(value) and found.decimals == decimals
+
+
+def test_a_comma_before_three_digits_still_groups_thousands_and_year_lists_stay_years() -> None:
+    # Three digits after a comma is the English thousands group (common practice, no source).
+    assert _one("12,500 nests").value == 12500.0
+    assert [q.value for q in quantities("as reported (Hale 2001,2003)")] != [2001.2003]
+
+
+def test_a_decimal_comma_in_the_source_backs_a_decimal_point_in_the_claim() -> None:
+    assert unsupported_numbers("Cover rose by 12.5%.", "Cover rose by 12,5 % on every site.", []) == []
+    [finding] = unsupported_numbers("Cover rose by 12.5%.", "Cover rose by 14,5 % on every site.", [])
+    assert finding.counterpart is not None and finding.counterpart.text == "14,5 %"
