@@ -6,8 +6,8 @@ for two claims in three, no better than BM25 alone, because the introduction res
 the claim's topic as closely as the results state the finding. The ranker adds what a
 reader uses to find the finding: the share of the claim's words in the passage and in
 its best sentence, the role of the section it stands in, where in that section it falls,
-whether it opens the work,
-whether it reports a statistic, and wording that reports a finding or sets the scene.
+whether it opens the work, whether it reports a statistic, and wording that reports a
+finding or sets the scene.
 Only near-ties of the first stage are reordered, and never past a passage whose best
 sentence covers the claim clearly better (see search.py). Its weights are fitted by
 pairwise logistic regression (the RankNet objective of Burges et al., 2005, with a

@@ -21,7 +21,8 @@ stream (lists in ``cue_lists.toml``), pure Python and fast, so they can run on e
   only the phrase up to the next comma, and an idiom that starts inside a cue wins over it
   ("is not" + "not restricted to": a widening, not a denial). Double negation is handled
   only in its plainest form: "not"/"no"/"never" directly before "without", "fail to",
-  "lack of" cancels both ("did not fail to"). Affixal negation ("unchanged", "not unlike") is not read at all.
+  "lack of" cancels both ("did not fail to"). Affixal negation ("unchanged", "not
+  unlike") is not read at all.
 - **direction-flip**: for each content word the claim and passage share, the nearest
   direction word in the same clause (within 6 words; ties go to the word before, as in
   "increased density") is looked up on each side. The claim flips the passage when more
@@ -63,7 +64,6 @@ _CLAUSE_WORDS = frozenset(["but", "whereas", "while", "although", "though"])
 _WORD = re.compile(r"[^\W_]+(?:['’][^\W_]+)*(?:[.,]\d+)*|[.;:!?]")
 _NEGATION_BEFORE = 3  # words before a negation cue inside its scope
 _NEGATION_AFTER = 6  # words after it
-_SCOPE_COMMA = True
 _CONTRASTIVE = frozenset(["but", "and"])  # "but not X", "and not X": X alone is negated
 _NEGATED_GAP = 2  # a cue at most this many words after a negation is negated
 _DIRECTION_WINDOW = 6  # words between a direction cue and the word it is about
@@ -463,7 +463,7 @@ class _Text:
             for i in range(lo, hi):
                 if i not in content or self.toks[i].clause != clause or n.start <= i < n.end:
                     continue
-                if i < n.start and _SCOPE_COMMA and self._comma_between(i, n.start):
+                if i < n.start and self._comma_between(i, n.start):
                     continue
                 if i >= n.end and contrastive and self._comma_between(n.end - 1, i):
                     continue
