@@ -180,8 +180,9 @@ _CONTEXT_CHARS = 60
 # "5 billion", "2.5 million dollars": a scale word multiplies the number before it. The
 # short scale of current English usage (a billion is 10^9; Chicago Manual of Style, 17th
 # ed., 9.24; from memory).
-_SCALE_WORD = re.compile(r"\s+(?P<word>thousand|million|billion|trillion)\b", re.IGNORECASE)
 _SCALES = {"thousand": 1e3, "million": 1e6, "billion": 1e9, "trillion": 1e12}
+_SCALE_WORDS = "|".join(_SCALES)
+_SCALE_WORD = re.compile(rf"\s+(?P<word>{_SCALE_WORDS})\b", re.IGNORECASE)
 # A currency written before the amount ("$5", "US$ 750", "€12"), or named after it.
 _CURRENCY_BEFORE = re.compile(r"(?P<cur>US\$|\$|€|£|¥)\s?$")
 _CURRENCY_SYMBOLS = {"US$": "$", "$": "$", "€": "€", "£": "£", "¥": "¥"}
@@ -455,10 +456,9 @@ def quantities(text: str) -> list[Quantity]:
 _COUNT_WORD = r"(?:\d[\d,]*|" + "|".join(_SPELLED_VALUES[1:]) + r")"
 # "one in five", "1 in 5 million", "three out of four": a proportion written as a ratio.
 _ONE_IN = re.compile(
-    rf"\b(?P<a>{_COUNT_WORD})\s+(?:in|out\s+of)\s+(?P<b>{_COUNT_WORD})(?:\s+(?P<mult>thousand|million|billion))?\b",
+    rf"\b(?P<a>{_COUNT_WORD})\s+(?:in|out\s+of)\s+(?P<b>{_COUNT_WORD})(?:\s+(?P<mult>{_SCALE_WORDS}))?\b",
     re.IGNORECASE,
 )
-_MULTIPLIERS = {"thousand": 1e3, "million": 1e6, "billion": 1e9}
 
 
 def _count(written: str) -> float:
@@ -475,7 +475,7 @@ def _proportions(text: str) -> tuple[list[Quantity], list[tuple[int, int]]]:
     found, spans = [], []
     for match in _ONE_IN.finditer(text):
         a, b = _count(match.group("a")), _count(match.group("b"))
-        b *= _MULTIPLIERS.get((match.group("mult") or "").lower(), 1.0)
+        b *= _SCALES.get((match.group("mult") or "").lower(), 1.0)
         if not b or a > b:
             continue  # "12 in 10 sites" is no proportion
         percent = 100.0 * a / b
