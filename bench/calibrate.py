@@ -37,14 +37,10 @@ from pathlib import Path
 import numpy as np
 from rapidfuzz import fuzz
 
-from sourcecheck.index import search as search_module
-from sourcecheck.index.ranking import RANK_FEATURES, Ranker
-from sourcecheck.index.ranking import features as rank_features
-from sourcecheck.judge.calibration import Calibration
-from sourcecheck.judge.features import FEATURE_NAMES, Features, features_of
-from sourcecheck.judge.verdict import judge
+from sourcecheck.index import DENSE_WEIGHT, RANK_FEATURES, RERANK_DEPTH, Ranker, rank_features
+from sourcecheck.judge import EVIDENCE_SEARCHED, FEATURE_NAMES, Calibration, Features, features_of, judge
 from sourcecheck.model import Band, Hit
-from sourcecheck.pipeline import EVIDENCE_SEARCHED, Prepared, prepare
+from sourcecheck.pipeline import Prepared, prepare
 
 ROOT = Path(__file__).resolve().parent.parent
 
@@ -134,9 +130,7 @@ def fit_ranker(prepared: Prepared, pairs: list[Pair], weight: float) -> Ranker:
     """Ranking weights from pairwise preferences within each claim's cited source."""
     differences, all_values = [], []
     for pair in (p for p in pairs if p.rationales):
-        hits = prepared.index.search(
-            pair.query, pair.vector, source=pair.source, k=search_module.RERANK_DEPTH, dense_weight=weight
-        )
+        hits = prepared.index.search(pair.query, pair.vector, source=pair.source, k=RERANK_DEPTH, dense_weight=weight)
         lexical_top = prepared.index.lexical_ceiling(pair.query)
         rows = []
         for hit in hits:
@@ -251,7 +245,7 @@ def main() -> int:
     print(f"pairs: {len(pairs)} matched ({len(fit)} fit, {len(holdout)} holdout)")
 
     print("\nfusion weight of the dense score -> evidence hit@1 / hit@3 / MRR@3 (fit split)")
-    best_weight, best_rate = search_module.DENSE_WEIGHT, -1.0
+    best_weight, best_rate = DENSE_WEIGHT, -1.0
     for weight in WEIGHTS_TRIED:
         at1, at3, mrr, n = hit_rates(prepared, fit, weight)
         print(f"  {weight:.1f}: {at1:.3f} / {at3:.3f} / {mrr:.3f}  (n={n})")

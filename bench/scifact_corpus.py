@@ -352,7 +352,7 @@ def choose_decoys(claims: list[ClaimRecord], docs: dict[int, Doc], fraction: flo
     """
     from rank_bm25 import BM25Okapi
 
-    from sourcecheck.index.tokens import tokenize
+    from sourcecheck.text import tokenize
 
     rng = random.Random(f"decoys:{seed}")
     pool = sorted(docs)

@@ -77,35 +77,34 @@ def _write_atomically(path: Path, text: str) -> None:
 def _run_check(args: argparse.Namespace) -> int:
     from rich.console import Console
 
-    from sourcecheck.drafts import ReadOptions
-    from sourcecheck.pipeline import run
-    from sourcecheck.reports import json_report, terminal
-    from sourcecheck.reports.progress import progress_bar
+    from sourcecheck.api import check
+    from sourcecheck.reports import dumps, progress_bar, render
 
     errors = Console(stderr=True)
     show_progress = not args.quiet and errors.is_terminal
     with progress_bar(errors, enabled=show_progress) as progress:
-        report = run(
+        report = check(
             args.draft,
             args.sources,
+            bib=args.bib,
+            format_in=args.format_in,
             mapping=args.map,
             model=args.model,
-            cache_dir=args.cache,
+            cache=args.cache,
             progress=progress,
-            read_options=ReadOptions(bibliography=args.bib, format=args.format_in),
         )
     for problem in report.problems:
         print(f"sourcecheck: {problem.file}: {problem.message}", file=sys.stderr)  # one line, never wrapped
     if args.format == "json":
-        text = json_report.dumps(report)
+        text = dumps(report)
     else:
         console = Console(record=True, width=100) if args.output else Console()
         if args.output:
             with console.capture():
-                terminal.render(report, console)
+                render(report, console)
             text = console.export_text()
         else:
-            terminal.render(report, console)
+            render(report, console)
             return EXIT_OK
     if args.output:
         _write_atomically(args.output, text)

@@ -10,6 +10,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 from enum import StrEnum
+from pathlib import Path
 
 
 @dataclass(frozen=True)
@@ -224,6 +225,35 @@ class ClaimResult:
 
     claim: Claim
     checks: list[Check]
+
+
+# --- run -------------------------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class ReadOptions:
+    """What the user told us about the draft beyond its path.
+
+    ``bibliography`` is ``--bib`` (a .bib, .bbl, CSL-JSON or RIS file); ``format`` is
+    ``--format-in``, which overrides the guess from the file's suffix.
+    """
+
+    bibliography: Path | None = None
+    format: str | None = None
+
+
+@dataclass
+class RunStats:
+    """What a run cost, counted as it goes: benchmarks and tests read it to prove the cache works.
+
+    The one mutable type here: the pipeline adds to it while it runs.
+    """
+
+    sources_read: int = 0
+    sources_from_cache: int = 0
+    passages_embedded: int = 0
+    claims_embedded: int = 0
+    model_loaded: bool = False
 
 
 # --- report ----------------------------------------------------------------------------

@@ -7,7 +7,6 @@ only the dataclasses of :mod:`sourcecheck.model`; bad input inside a file become
 
 from __future__ import annotations
 
-import re
 from collections.abc import Callable
 from dataclasses import dataclass
 from pathlib import Path
@@ -15,36 +14,21 @@ from typing import TypedDict, Unpack
 
 import numpy as np
 
-from sourcecheck.drafts import ReadOptions, read_draft
+from sourcecheck.claims import claim_query
+from sourcecheck.drafts import read_draft
 from sourcecheck.errors import SourcesUnreadable
-from sourcecheck.index.cache import Cache, default_cache_dir, text_key
-from sourcecheck.index.dense import Encoder, resolve_model_path
-from sourcecheck.index.ranking import Ranker
-from sourcecheck.index.search import EvidenceIndex
-from sourcecheck.judge.calibration import Calibration, load_calibration
-from sourcecheck.judge.locators import cited_pages, pdf_pages, prefers_located
-from sourcecheck.judge.quotes import check_quotes, quotations
-from sourcecheck.judge.verdict import (
-    better_source_reason,
-    judge,
-    page_mismatch_reason,
-    unverifiable,
-    wants_better_source,
-    with_printed_pages,
-)
+from sourcecheck.index import Cache, Encoder, EvidenceIndex, Ranker, default_cache_dir, resolve_model_path, text_key
+from sourcecheck.judge import EVIDENCE_SEARCHED, Calibration, CitationJudge, Search, load_calibration
 from sourcecheck.model import (
-    Check,
-    Citation,
-    Claim,
     ClaimResult,
     Draft,
     Hit,
     ModelInfo,
     Passage,
     Problem,
-    Reason,
-    Reference,
+    ReadOptions,
     Report,
+    RunStats,
     Source,
     SourceMatch,
 )
@@ -59,19 +43,6 @@ from sourcecheck.sources import (
 
 #: Called as ``progress(stage, done, total)`` while sources are read and embedded.
 ProgressHook = Callable[[str, int, int], None]
-
-EVIDENCE_SEARCHED = 3
-
-
-@dataclass
-class RunStats:
-    """What a run cost: benchmarks and tests read it to prove the cache works."""
-
-    sources_read: int = 0
-    sources_from_cache: int = 0
-    passages_embedded: int = 0
-    claims_embedded: int = 0
-    model_loaded: bool = False
 
 
 def _noop(stage: str, done: int, total: int) -> None:
@@ -140,14 +111,6 @@ def embed_sources(
     return np.vstack(nonempty) if nonempty else np.zeros((0, 1), dtype=np.float32)
 
 
-def claim_query(claim: Claim) -> str:
-    """The claim sentence without its citation markers: what is searched and judged."""
-    text = claim.text
-    for marker in {c.marker for c in claim.citations}:
-        text = text.replace(marker, " ")
-    return re.sub(r"\s+([.,;:])", r"\1", re.sub(r"\s{2,}", " ", text)).strip()
-
-
 def embed_claims(queries: list[str], encoder: Encoder, cache: Cache, stats: RunStats) -> np.ndarray:
     """Claim vectors, cached for the draft as a whole so a warm run embeds nothing."""
     if not queries:
@@ -159,97 +122,6 @@ def embed_claims(queries: list[str], encoder: Encoder, cache: Cache, stats: RunS
         cache.save_vectors("claims", key, vectors)
         stats.claims_embedded += len(queries)
     return vectors
-
-
-@dataclass
-class CitationChecker:
-    """Everything one citation's check reads, gathered once per run."""
-
-    references: dict[str, Reference]
-    matches: dict[str, SourceMatch]
-    index: EvidenceIndex
-    calibration: Calibration
-    sources: dict[str, Source]
-
-    def check(self, claim: Claim, claim_text: str, vector: np.ndarray, citation: Citation) -> Check:
-        """Judge one citation of a claim against its matched source.
-
-        A citation with a page locator is judged on the cited pages when they back the
-        claim about as well as the whole source does
-        (:func:`~sourcecheck.judge.locators.prefers_located`); otherwise on the whole
-        source, with a ``page-mismatch`` reason naming where the backing is.
-        """
-        if citation.key is None or citation.key not in self.references:
-            return unverifiable(
-                citation,
-                None,
-                None,
-                Reason("marker-unresolved", f"{citation.label} has no entry in the reference list"),
-            )
-        reference = self.references[citation.key]
-        match = self.matches.get(reference.key)
-        if match is None:
-            return unverifiable(
-                citation,
-                reference,
-                None,
-                Reason("source-missing", f"no readable PDF in the sources folder matches reference {citation.label}"),
-            )
-        source = self.sources.get(match.source)
-        hits = self.evidence_for(claim_text, vector, match.source)
-        printed = source.printed_pages if source is not None else ()
-        mismatch: tuple[Hit, bool] | None = None  # (where the backing is, whether the cited page exists)
-        cited = cited_pages(citation.locator)
-        if cited and hits and source is not None:
-            wanted = pdf_pages(cited, printed, source.pages)
-            located = self.evidence_for(claim_text, vector, match.source, pages=wanted) if wanted else []
-            if prefers_located(located, hits):
-                hits = located
-            else:
-                mismatch = (hits[0], bool(wanted))
-        quotes = check_quotes(claim_text, page_texts(source)) if source is not None and quotations(claim_text) else []
-        check = judge(claim_text, citation, reference, match.source, hits, self.calibration, quotes=quotes)
-        check = with_printed_pages(check, printed)
-        if mismatch is not None and citation.locator:
-            reason = page_mismatch_reason(check, citation.locator, mismatch[0], printed, page_exists=mismatch[1])
-            if reason is not None:
-                check.reasons.append(reason)
-        better = self._better_source(check, claim, claim_text, vector)
-        if better is not None:
-            check.reasons.append(better)
-        return check
-
-    def __post_init__(self) -> None:
-        self.ranker = Ranker(self.calibration.ranking, self.calibration.ranking_margin)
-
-    def evidence_for(
-        self,
-        text: str,
-        vector: np.ndarray,
-        source: str | None,
-        pages: set[int] | None = None,
-        k: int = EVIDENCE_SEARCHED,
-    ) -> list[Hit]:
-        """The best ``k`` passages for a claim, within ``source`` (and ``pages``) or folder-wide."""
-        weight = self.calibration.dense_weight
-        return self.index.search(text, vector, source=source, k=k, dense_weight=weight, pages=pages, ranker=self.ranker)
-
-    def _better_source(self, check: Check, claim: Claim, claim_text: str, vector: np.ndarray) -> Reason | None:
-        if not wants_better_source(check):
-            return None  # the folder-wide search is skipped for every backed check
-        # Another work this claim already cites is no "better source": the author cited both.
-        cited_here = {self.matches[c.key].source for c in claim.citations if c.key in self.matches}
-        hits = self.evidence_for(claim_text, vector, None, k=8)
-        alternatives = [h for h in hits if h.passage.source not in cited_here]
-        return better_source_reason(check, alternatives[0], claim_text, self.calibration) if alternatives else None
-
-
-def page_texts(source: Source) -> list[tuple[int, str]]:
-    """Each page's evidence text (its passages joined), for checks that read a whole source."""
-    pages: dict[int, list[str]] = {}
-    for passage in source.passages:
-        pages.setdefault(passage.page, []).append(passage.text)
-    return [(page, " ".join(texts)) for page, texts in sorted(pages.items())]
 
 
 def unused_sources(sources: list[Source], draft: Draft, matches: dict[str, SourceMatch]) -> list[str]:
@@ -334,14 +206,29 @@ def run(draft_path: Path, sources_dir: Path, **options: Unpack[RunOptions]) -> R
     return judge_all(prepare(draft_path, sources_dir, **options), draft_path, sources_dir)
 
 
-def make_checker(prepared: Prepared) -> CitationChecker:
-    """The citation checker for a prepared run, with the shipped calibration."""
-    return CitationChecker(
+def make_search(index: EvidenceIndex, calibration: Calibration) -> Search:
+    """The index's search with the fitted fusion weight and second-stage ranker: what the judge reads."""
+    ranker = Ranker(calibration.ranking, calibration.ranking_margin)
+
+    def search(
+        text: str, vector: np.ndarray, source: str | None, pages: set[int] | None = None, k: int = EVIDENCE_SEARCHED
+    ) -> list[Hit]:
+        return index.search(
+            text, vector, source=source, k=k, dense_weight=calibration.dense_weight, pages=pages, ranker=ranker
+        )
+
+    return search
+
+
+def make_checker(prepared: Prepared) -> CitationJudge:
+    """The citation judge for a prepared run, with the shipped calibration."""
+    calibration = load_calibration()
+    return CitationJudge(
         references={r.key: r for r in prepared.draft.references},
         matches=prepared.matches,
-        index=prepared.index,
-        calibration=load_calibration(),
         sources={s.path: s for s in prepared.sources},
+        calibration=calibration,
+        search=make_search(prepared.index, calibration),
     )
 
 
@@ -351,8 +238,7 @@ def judge_all(prepared: Prepared, draft_path: Path, sources_dir: Path) -> Report
     checker = make_checker(prepared)
     results = []
     for claim, query, vector in zip(draft.claims, prepared.queries, prepared.claim_vectors, strict=False):
-        checks = [checker.check(claim, query, vector, citation) for citation in claim.citations]
-        results.append(ClaimResult(claim=claim, checks=checks))
+        results.append(ClaimResult(claim=claim, checks=checker.check_claim(claim, query, vector)))
     cache_problems = [Problem(str(prepared.cache.root), w) for w in prepared.cache.warnings]
     return Report(
         draft=str(draft_path),

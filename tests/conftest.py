@@ -9,6 +9,10 @@ import pytest
 os.environ["HF_HUB_OFFLINE"] = "1"
 os.environ["TRANSFORMERS_OFFLINE"] = "1"
 
+from tests import report_schema
+
+report_schema.install()
+
 
 @pytest.fixture(scope="session")
 def encoder():

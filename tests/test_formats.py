@@ -30,9 +30,8 @@ from pdfminer.high_level import extract_pages
 from pdfminer.layout import LTChar, LTComponent
 from pypdf import PdfReader
 
-from sourcecheck.drafts import ReadOptions
+import sourcecheck
 from sourcecheck.model import Claim, Report
-from sourcecheck.pipeline import run
 
 ROOT = Path(__file__).resolve().parent.parent
 MANUSCRIPT = ROOT / "sample_manuscript"
@@ -78,7 +77,7 @@ def reports(tmp_path_factory: pytest.TempPathFactory) -> dict[str, Report]:
         def __missing__(self, name: str) -> Report:
             # No --bib: the Pandoc version names refs.bib in its front matter, the LaTeX
             # version in \bibliography{refs}; those are the paths under test.
-            report = run(VERSIONS[name], SOURCES, cache_dir=cache, read_options=ReadOptions(bibliography=None))
+            report = sourcecheck.check(VERSIONS[name], SOURCES, cache=cache)
             self[name] = report
             return report
 

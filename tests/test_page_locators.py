@@ -8,8 +8,8 @@ from __future__ import annotations
 
 import pytest
 
+import sourcecheck
 from sourcecheck.model import Band, Check, Report
-from sourcecheck.pipeline import run
 from sourcecheck.reports.json_report import to_dict
 from tests.pdf_fixtures import paper_pdf
 
@@ -56,7 +56,7 @@ def report(tmp_path_factory: pytest.TempPathFactory) -> Report:
     )
     draft = root / "draft.md"
     draft.write_text(DRAFT, encoding="utf-8")
-    return run(draft, sources, cache_dir=root / "cache")
+    return sourcecheck.check(draft, sources, cache=root / "cache")
 
 
 def _check(report: Report, index: int) -> Check:
@@ -82,6 +82,6 @@ def test_right_page_gives_no_page_mismatch(report: Report) -> None:
 
 
 def test_json_keeps_the_pdf_page_and_adds_the_printed_one(report: Report) -> None:
-    # DESIGN.md contract: evidence[].page is the 1-based PDF page.
+    # report.schema.json: evidence[].page is the 1-based PDF page.
     evidence = to_dict(report)["claims"][2]["checks"][0]["evidence"][0]
     assert evidence["page"] == 2 and evidence["printed_page"] == "306"

@@ -12,8 +12,9 @@ from pathlib import Path
 
 import pytest
 
+import sourcecheck
+from sourcecheck import RunStats
 from sourcecheck.model import Band, Report
-from sourcecheck.pipeline import RunStats, run
 
 ROOT = Path(__file__).resolve().parent.parent
 DRAFT = ROOT / "sample_manuscript" / "draft.md"
@@ -65,7 +66,7 @@ def cold(demo_cache: Path) -> tuple[Report, RunStats, list[str]]:
     with pytest.MonkeyPatch.context() as patch:
         guard = _NetworkGuard(patch)
         stats = RunStats()
-        report = run(DRAFT, SOURCES, cache_dir=demo_cache, stats=stats)
+        report = sourcecheck.check(DRAFT, SOURCES, cache=demo_cache, stats=stats)
     return report, stats, guard.attempts
 
 
@@ -79,7 +80,7 @@ def _check_for(report: Report, snippet: str, citation: str):
 
 
 def test_the_whole_run_opens_no_network_connection(cold) -> None:
-    # DESIGN.md, "Confidentiality": sourcecheck opens no network connection, ever.
+    # README: everything runs offline; sourcecheck opens no network connection, ever.
     report, stats, attempts = cold
     assert attempts == []
     assert stats.model_loaded and stats.passages_embedded > 0  # the model really ran under the guard
@@ -128,7 +129,8 @@ def test_evidence_is_short_and_paged(cold) -> None:
     for result in cold[0].claims:
         for check in result.checks:
             for evidence in check.evidence:
-                # DESIGN.md: an evidence passage is at most about 100 words.
+                # sources/_passages.py: a passage is a few whole sentences, short enough for
+                # the embedding model (common practice, no source).
                 assert len(evidence.text.split()) <= 100
                 assert evidence.page >= 1
             assert check.reasons, "every check says why"
@@ -136,7 +138,7 @@ def test_evidence_is_short_and_paged(cold) -> None:
 
 def test_warm_run_embeds_nothing_and_loads_no_model(cold, demo_cache: Path) -> None:
     stats = RunStats()
-    warm = run(DRAFT, SOURCES, cache_dir=demo_cache, stats=stats)
+    warm = sourcecheck.check(DRAFT, SOURCES, cache=demo_cache, stats=stats)
     assert stats.passages_embedded == 0 and stats.claims_embedded == 0
     assert stats.sources_read == 0 and stats.sources_from_cache == 7
     assert not stats.model_loaded
@@ -152,7 +154,7 @@ def test_corrupt_cache_entry_is_rebuilt_with_a_warning(cold, demo_cache: Path, t
     victim = sorted((cache / "passages").glob("*.npy"))[0]
     victim.write_bytes(b"not an array")
     stats = RunStats()
-    report = run(DRAFT, SOURCES, cache_dir=cache, stats=stats)
+    report = sourcecheck.check(DRAFT, SOURCES, cache=cache, stats=stats)
     assert stats.passages_embedded > 0
     assert any("rebuilt" in p.message for p in report.problems)
     assert re.search(r"\.npy", " ".join(p.message for p in report.problems))

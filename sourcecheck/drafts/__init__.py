@@ -8,30 +8,17 @@ reference and claim modules, so a new format only has to cut its text into block
 from __future__ import annotations
 
 from collections.abc import Callable
-from dataclasses import dataclass
 from pathlib import Path
 
 from sourcecheck.drafts.latex import read_latex
 from sourcecheck.drafts.markdown import read_markdown
-from sourcecheck.drafts.pdf_manuscript import read_pdf_manuscript
+from sourcecheck.drafts.pdf import read_pdf_manuscript
 from sourcecheck.drafts.textfile import decode, read_bytes
 from sourcecheck.drafts.word import read_word
 from sourcecheck.errors import DraftUnreadable
-from sourcecheck.model import Draft, Problem
+from sourcecheck.model import Draft, Problem, ReadOptions
 
-__all__ = ["FORMATS", "READERS", "ReadOptions", "read_draft"]
-
-
-@dataclass(frozen=True)
-class ReadOptions:
-    """What the user told us about the draft beyond its path.
-
-    ``bibliography`` is ``--bib`` (a .bib, .bbl, CSL-JSON or RIS file); ``format`` is
-    ``--format-in``, which overrides the guess from the file's suffix.
-    """
-
-    bibliography: Path | None = None
-    format: str | None = None
+__all__ = ["FORMATS", "READERS", "read_draft"]
 
 
 #: A reader gets the draft's path, its display name and the options, and returns a Draft.

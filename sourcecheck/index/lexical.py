@@ -13,7 +13,7 @@ from collections.abc import Sequence
 import numpy as np
 from rank_bm25 import BM25Okapi
 
-from sourcecheck.index.tokens import tokenize
+from sourcecheck.text import tokenize
 
 # Robertson and Zaragoza (2009), "The Probabilistic Relevance Framework: BM25 and Beyond",
 # recommend k1 in [1.2, 2.0] and b = 0.75; rank-bm25's defaults are k1 = 1.5, b = 0.75.

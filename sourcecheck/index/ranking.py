@@ -21,8 +21,8 @@ import re
 from collections.abc import Mapping
 from dataclasses import dataclass, field
 
-from sourcecheck.index.tokens import coverage
 from sourcecheck.model import SECTION_ROLES, Passage
+from sourcecheck.text import coverage
 
 #: The ranker's inputs, in the order ``features`` returns them.
 RANK_FEATURES = (

@@ -1,7 +1,7 @@
 """Hybrid retrieval: BM25 and embedding similarity fused into one ranking.
 
 The fused score is a weighted sum of the cosine similarity and the BM25 score scaled by
-its largest value for the query across the folder. DESIGN.md measured that inside one
+its largest value for the query across the folder. the project's design notes measured that inside one
 cited document MiniLM alone finds the rationale first more often than reciprocal rank
 fusion with BM25; the weight below was set on SciFact (see DEVELOPERS.md, "Calibration").
 """
@@ -15,8 +15,8 @@ import numpy as np
 from sourcecheck.index.lexical import LexicalIndex
 from sourcecheck.index.ranking import RANK_FEATURES, Ranker
 from sourcecheck.index.ranking import features as rank_features
-from sourcecheck.index.tokens import coverage
 from sourcecheck.model import Hit, Passage
+from sourcecheck.text import coverage
 
 # Weight of the dense cosine in the fused score; 1 - DENSE_WEIGHT goes to scaled BM25.
 DENSE_WEIGHT = 0.7

@@ -28,9 +28,10 @@ from __future__ import annotations
 
 import re
 
-from sourcecheck.index.tokens import STOP_WORDS, s_stem
 from sourcecheck.judge.cues import CueFinding, effect_direction, sentences
-from sourcecheck.judge.numbers import Quantity, quantities, same_value
+from sourcecheck.judge.number_checks import same_value
+from sourcecheck.judge.numbers import Quantity, quantities
+from sourcecheck.text import STOP_WORDS, s_stem
 
 _THAN = re.compile(r"\bthan\b", re.IGNORECASE)
 _CLAUSE_END = re.compile(r"[.;:!?]|,\s|\b(?:and|but|whereas|while|which|who|because)\b", re.IGNORECASE)

@@ -47,446 +47,19 @@ Each check returns at most one finding, so a report line stays readable.
 from __future__ import annotations
 
 import re
-import tomllib
-import unicodedata
-from collections.abc import Iterable, Sequence
-from dataclasses import dataclass
-from functools import lru_cache
-from importlib import resources
 
-import pysbd
+from sourcecheck.judge.cue_lists import CueFinding, load_cues
+from sourcecheck.judge.cue_text import CueMatch, CueText, Label, tokens_of
+from sourcecheck.text import STOP_WORDS, sentence_spans
 
-from sourcecheck.index.tokens import STOP_WORDS, s_stem
-
-# Words (and the sentence punctuation ".;:!?") that start a new clause: a negation or a
-# direction word is not read across them. Common practice, no source.
-_CLAUSE_WORDS = frozenset(["but", "whereas", "while", "although", "though"])
-_WORD = re.compile(r"[^\W_]+(?:['’][^\W_]+)*(?:[.,]\d+)*|[.;:!?]")
-_NEGATION_BEFORE = 3  # words before a negation cue inside its scope
-_NEGATION_AFTER = 6  # words after it
-_CONTRASTIVE = frozenset(["but", "and"])  # "but not X", "and not X": X alone is negated
-_NEGATED_GAP = 2  # a cue at most this many words after a negation is negated
 _DIRECTION_WINDOW = 6  # words between a direction cue and the word it is about
 _WHOLE_PASSAGE_KINDS = frozenset(["species", "in-vitro"])
 _DETERMINERS = frozenset(["the", "a", "an", "its", "their", "our", "this", "these", "both"])
 
-
-@dataclass(frozen=True)
-class CueFinding:
-    """One way the claim goes beyond its passage, with the words on each side."""
-
-    code: str  # "overstated" | "negation" | "direction-flip" | "scope-wider"
-    claim_cue: str  # the words in the claim, "" when the claim has none
-    source_cue: str  # the words in the passage, "" when the passage has none
-    message: str  # one readable sentence, without the page
-
-
-@dataclass(frozen=True)
-class DirectionAxis:
-    """Two opposite sides of one meaning (amount: up/down), each a list of cue entries."""
-
-    name: str
-    sides: tuple[str, str]
-    terms: tuple[tuple[str, ...], tuple[str, ...]]
-
-
-@dataclass(frozen=True)
-class ScopeGroup:
-    """Synonymous terms for one restriction of where a finding holds ("mice", "women")."""
-
-    name: str
-    kind: str  # "species" | "in-vitro" | "subgroup" | "setting"
-    terms: tuple[str, ...]
-    opposite: str = ""  # a group that, present too, makes the pair a whole
-
-
-@dataclass(frozen=True)
-class CueLists:
-    """The parsed ``cue_lists.toml``."""
-
-    hedges: tuple[str, ...]
-    boosters: tuple[str, ...]
-    causal: tuple[str, ...]
-    effect_verbs: tuple[str, ...]
-    associational: tuple[str, ...]
-    not_certainty: tuple[str, ...]
-    negations: tuple[str, ...]
-    negation_cancels: tuple[str, ...]
-    not_negation: tuple[str, ...]
-    direction: tuple[DirectionAxis, ...]
-    not_direction: tuple[str, ...]
-    scope_groups: tuple[ScopeGroup, ...]
-    scope_wider: dict[str, tuple[str, ...]]
-    scope_covers: dict[str, tuple[str, ...]]
-    not_places: frozenset[str]
-    ignore: frozenset[str]
-
-
-def _strings(value: object, where: str) -> tuple[str, ...]:
-    if not isinstance(value, list) or not value or not all(isinstance(v, str) and v for v in value):
-        raise ValueError(f"cue_lists.toml: {where} must be a non-empty list of strings")
-    return tuple(v.strip() for v in value)
-
-
-@lru_cache(maxsize=1)
-def load_cues() -> CueLists:
-    """Parse the packaged cue lists once; a malformed file is a packaging bug, so it raises."""
-    text = resources.files("sourcecheck.judge").joinpath("cue_lists.toml").read_text(encoding="utf-8")
-    data = tomllib.loads(text)
-    cert, neg, scope = data["certainty"], data["negation"], data["scope"]
-    axes = []
-    for name, table in data["direction"].items():
-        if not isinstance(table, dict) or len(table) != 2:
-            raise ValueError(f"cue_lists.toml: direction.{name} must hold exactly two lists")
-        (a, terms_a), (b, terms_b) = table.items()
-        axes.append(
-            DirectionAxis(
-                name, (a, b), (_strings(terms_a, f"direction.{name}.{a}"), _strings(terms_b, f"direction.{name}.{b}"))
-            )
-        )
-    groups = tuple(
-        ScopeGroup(g["name"], g["kind"], _strings(g["terms"], f"scope group {g['name']}"), g.get("opposite", ""))
-        for g in scope["groups"]
-    )
-    return CueLists(
-        hedges=_strings(cert["hedges_bioscope"], "hedges_bioscope") + _strings(cert["hedges_hyland"], "hedges_hyland"),
-        boosters=_strings(cert["boosters_hyland"], "boosters_hyland") + _strings(cert["boosters_extra"], "extra"),
-        causal=_strings(cert["causal"], "causal"),
-        effect_verbs=_strings(cert["effect_verbs"], "effect_verbs"),
-        associational=_strings(cert["associational"], "associational"),
-        not_certainty=_strings(cert["not_certainty"], "not_certainty"),
-        negations=_strings(neg["cues"], "negation.cues"),
-        negation_cancels=_strings(neg["cancels"], "negation.cancels"),
-        not_negation=_strings(neg["not_negation"], "negation.not_negation"),
-        direction=tuple(axes),
-        not_direction=_strings(data["direction_pseudo"]["phrases"], "direction_pseudo.phrases"),
-        scope_groups=groups,
-        scope_wider={k: _strings(v, f"scope.wider.{k}") for k, v in scope["wider"].items()},
-        scope_covers={k: _strings(v, f"scope.covers.{k}") for k, v in scope["covers"].items()},
-        not_places=frozenset(_strings(scope["not_places"], "scope.not_places")),
-        ignore=frozenset(_strings(data["shared"]["ignore"], "shared.ignore")),
-    )
-
-
-# --- tokens ---------------------------------------------------------------------------------
-
-
-@dataclass(frozen=True, slots=True)
-class _Tok:
-    text: str  # lower-case, NFKC-folded word
-    stem: str  # plural-folded, what cue entries are compared with
-    root: str  # also -ed/-ing folded, what claim and passage words are compared with
-    start: int  # character span in the original text
-    end: int
-    clause: int
-    sentence: int
-    capital: bool
-
-
-def _root(word: str) -> str:
-    """A light stem so "increased", "increases" and "increase" compare equal."""
-    w = s_stem(word)
-    for suffix in ("ing", "ed"):
-        if w.endswith(suffix) and len(w) - len(suffix) >= 4:
-            w = w[: -len(suffix)]
-            break
-    if w.endswith("e") and len(w) > 4:
-        w = w[:-1]
-    return w
-
-
-def _make(text: str, start: int, end: int, clause: int, sentence: int, capital: bool) -> _Tok:
-    return _Tok(text, s_stem(text), _root(text), start, end, clause, sentence, capital)
-
-
-def _tokens(text: str, spans: Sequence[tuple[int, int]] | None = None) -> list[_Tok]:
-    """Word tokens of ``text`` (stop words kept) with clause and sentence numbers."""
-    out: list[_Tok] = []
-    clause = 0
-    for sentence, (lo, hi) in enumerate(spans or [(0, len(text))]):
-        clause += 1
-        for m in _WORD.finditer(text, lo, hi):
-            raw = m.group()
-            if raw in ".;:!?":
-                clause += 1
-                continue
-            word = unicodedata.normalize("NFKC", raw).lower().replace("’", "'")
-            start, end, capital = m.start(), m.end(), raw[0].isupper()
-            if word in _CLAUSE_WORDS:
-                clause += 1
-            if word.endswith("'s"):
-                word, end = word[:-2], end - 2
-            if word.endswith("n't") or word == "cannot":
-                # "did|n't", "can|not": the last three characters are the negation.
-                if len(word) > 3:
-                    out.append(_make(word[:-3], start, end - 3, clause, sentence, capital))
-                out.append(_make("not", end - 3, end, clause, sentence, False))
-                continue
-            out.append(_make(word, start, end, clause, sentence, capital))
-    return out
-
-
-@lru_cache(maxsize=1)
-def _segmenter() -> pysbd.Segmenter:
-    return pysbd.Segmenter(language="en", clean=False)
-
-
-@lru_cache(maxsize=2048)
-def _sentence_spans(text: str) -> tuple[tuple[int, int], ...]:
-    """Sentence spans by pysbd, located in ``text`` so token offsets stay true to it.
-
-    Cached: the wording cues and the effect check both read the best passage's sentences.
-    """
-    try:
-        sentences = _segmenter().segment(text)
-    except Exception:  # pysbd fails on odd input now and then; one sentence is a safe reading
-        return ((0, len(text)),)
-    spans, cursor = [], 0
-    for sentence in sentences:
-        piece = sentence.strip()
-        at = text.find(piece, cursor) if piece else -1
-        if at < 0:
-            continue
-        spans.append((at, at + len(piece)))
-        cursor = at + len(piece)
-    if not spans:
-        return ((0, len(text)),)
-    spans[-1] = (spans[-1][0], len(text))
-    return tuple(spans)
-
-
-# --- phrase matching ------------------------------------------------------------------------
-
-Label = tuple[str, ...]
-
-
-@dataclass(frozen=True, slots=True)
-class _Match:
-    start: int  # token indices, end exclusive
-    end: int
-    labels: frozenset[Label]
-
-
-def _pattern(entry: str) -> tuple[tuple[bool, str], ...]:
-    """An entry as (is_prefix, text) word tests, tokenised like the text it is matched in."""
-    words: list[tuple[bool, str]] = []
-    for part in entry.lower().split():
-        if part.endswith("*"):
-            words.append((True, part[:-1]))
-        else:
-            words.extend((False, t.stem) for t in _tokens(part))
-    return tuple(words)
-
-
-class _Matcher:
-    """Finds cue entries in a token list, longest match first, without overlaps."""
-
-    def __init__(self, entries: Iterable[tuple[str, Label]]) -> None:
-        merged: dict[tuple[tuple[bool, str], ...], set[Label]] = {}
-        for entry, label in entries:
-            pattern = _pattern(entry)
-            if pattern:
-                merged.setdefault(pattern, set()).add(label)
-        self._exact: dict[str, list[tuple[tuple[tuple[bool, str], ...], frozenset[Label]]]] = {}
-        self._prefix: dict[str, list[tuple[tuple[tuple[bool, str], ...], frozenset[Label]]]] = {}
-        for pattern, labels in merged.items():
-            is_prefix, first = pattern[0]
-            table, key = (self._prefix, first[:3]) if is_prefix else (self._exact, first)
-            table.setdefault(key, []).append((pattern, frozenset(labels)))
-        for table in (self._exact, self._prefix):
-            for candidates in table.values():
-                candidates.sort(key=lambda c: -len(c[0]))
-
-    @staticmethod
-    def _fits(pattern: tuple[tuple[bool, str], ...], toks: Sequence[_Tok], i: int) -> bool:
-        if i + len(pattern) > len(toks):
-            return False
-        clause = toks[i].clause
-        for (is_prefix, word), tok in zip(pattern, toks[i : i + len(pattern)], strict=True):
-            if tok.clause != clause:
-                return False
-            if not (tok.text.startswith(word) if is_prefix else tok.stem == word):
-                return False
-        return True
-
-    def _longest(self, toks: Sequence[_Tok], i: int) -> tuple[int, frozenset[Label]] | None:
-        best: tuple[int, frozenset[Label]] | None = None
-        for pattern, labels in self._exact.get(toks[i].stem, []) + self._prefix.get(toks[i].text[:3], []):
-            if (best is None or len(pattern) > best[0]) and self._fits(pattern, toks, i):
-                best = (len(pattern), labels)
-        return best
-
-    def find(self, toks: Sequence[_Tok]) -> list[_Match]:
-        """Longest matches, left to right; an idiom that starts inside a match and runs past
-        it wins ("is not" + "not restricted to": the idiom, so no negation)."""
-        found: list[_Match] = []
-        i = 0
-        while i < len(toks):
-            best = self._longest(toks, i)
-            if best is None:
-                i += 1
-                continue
-            for j in range(i + 1, i + best[0]):
-                inner = self._longest(toks, j)
-                if inner is not None and ("pseudo",) in inner[1] and j + inner[0] > i + best[0]:
-                    i, best = j, inner
-                    break
-            found.append(_Match(i, i + best[0], best[1]))
-            i += best[0]
-        return found
-
-
-@dataclass(frozen=True)
-class _Matchers:
-    certainty: _Matcher
-    negation: _Matcher
-    direction: _Matcher
-    scope: _Matcher
-
-
-@lru_cache(maxsize=1)
-def _matchers() -> _Matchers:
-    cues = load_cues()
-    certainty = (
-        [(e, ("hedge",)) for e in cues.hedges]
-        + [(e, ("booster",)) for e in cues.boosters]
-        + [(e, ("causal",)) for e in cues.causal]
-        + [(e, ("effect",)) for e in cues.effect_verbs]
-        + [(e, ("assoc",)) for e in cues.associational]
-        + [(e, ("pseudo",)) for e in cues.not_certainty]
-    )
-    negation = (
-        [(e, ("neg",)) for e in cues.negations]
-        + [(e, ("cancel",)) for e in cues.negation_cancels]
-        + [(e, ("pseudo",)) for e in cues.not_negation]
-    )
-    direction = [(e, ("pseudo",)) for e in cues.not_direction]
-    for axis in cues.direction:
-        for side, terms in zip(axis.sides, axis.terms, strict=True):
-            direction += [(e, ("dir", axis.name, side)) for e in terms]
-    scope = [(t, ("group", g.name)) for g in cues.scope_groups for t in g.terms]
-    scope += [(t, ("wider", kind)) for kind, terms in cues.scope_wider.items() for t in terms]
-    scope += [(t, ("cover", kind)) for kind, terms in cues.scope_covers.items() for t in terms]
-    return _Matchers(_Matcher(certainty), _Matcher(negation), _Matcher(direction), _Matcher(scope))
-
-
-# --- one analysed text ----------------------------------------------------------------------
-
-
-class _Text:
-    """A claim or passage: its tokens and the cues found in it, computed once."""
-
-    def __init__(self, raw: str, split_sentences: bool) -> None:
-        self.raw = raw
-        self.toks = _tokens(raw, _sentence_spans(raw) if split_sentences else None)
-        m = _matchers()
-        self.negations = self._live_negations(m.negation.find(self.toks))
-        self.certainty = [
-            c
-            for c in m.certainty.find(self.toks)
-            if ("pseudo",) not in c.labels and not self._negated(c) and not self._month(c)
-        ]
-        self.direction = [
-            d for d in m.direction.find(self.toks) if ("pseudo",) not in d.labels and not self._negated(d)
-        ]
-        self.scope = m.scope.find(self.toks)
-        ignore = load_cues().ignore
-        in_negation = {i for n in self.negations for i in range(n.start, n.end)}
-        self.content = [
-            i
-            for i, t in enumerate(self.toks)
-            if i not in in_negation
-            and t.text not in STOP_WORDS
-            and len(t.text) > 1
-            and any(c.isalpha() for c in t.text)
-            and t.text not in ignore
-            and t.root not in ignore
-        ]
-        self.roots = {self.toks[i].root for i in self.content}
-
-    @staticmethod
-    def _live_negations(found: list[_Match]) -> list[_Match]:
-        """Negation cues minus idioms and cancelled pairs ("did not fail to")."""
-        cues = [n for n in found if ("pseudo",) not in n.labels]
-        dead: set[int] = set()
-        for k in range(len(cues) - 1):
-            first, second = cues[k], cues[k + 1]
-            if ("cancel",) in second.labels and ("cancel",) not in first.labels and second.start - first.end <= 1:
-                dead |= {k, k + 1}
-        return [n for k, n in enumerate(cues) if k not in dead]
-
-    def _negated(self, cue: _Match) -> bool:
-        clause = self.toks[cue.start].clause
-        return any(
-            0 <= cue.start - n.end <= _NEGATED_GAP and self.toks[n.start].clause == clause for n in self.negations
-        )
-
-    def _month(self, cue: _Match) -> bool:
-        """ "May" written with a capital inside a sentence is the month, not the hedge."""
-        tok = self.toks[cue.start]
-        first = cue.start == 0 or self.toks[cue.start - 1].sentence != tok.sentence
-        return tok.text == "may" and tok.capital and not first
-
-    def surface(self, start: int, end: int) -> str:
-        return self.raw[self.toks[start].start : self.toks[end - 1].end]
-
-    def said(self, cue: _Match) -> str:
-        return self.surface(cue.start, cue.end)
-
-    def labelled(self, kind: str, sentences: set[int] | None = None) -> list[_Match]:
-        return [
-            c
-            for c in self.certainty
-            if (kind,) in c.labels and (sentences is None or self.toks[c.start].sentence in sentences)
-        ]
-
-    def _comma_between(self, i: int, j: int) -> bool:
-        """Whether a comma stands between tokens ``i`` and ``j`` (i before j)."""
-        return "," in self.raw[self.toks[i].end : self.toks[j].start]
-
-    def negation_scopes(self) -> list[tuple[_Match, set[str]]]:
-        """Each negation cue with the content roots in its window, inside its clause.
-
-        The words before a cue are its subject only up to a comma ("CCL19, which lacks
-        anchoring residues": the residues are negated, not CCL19's being a ligand). A
-        contrastive "but not" / "and not" negates only the phrase up to the next comma
-        ("memory, but not naive, T cells enhance ...").
-        """
-        content = set(self.content)
-        scopes = []
-        for n in self.negations:
-            clause = self.toks[n.start].clause
-            contrastive = n.start > 0 and self.toks[n.start - 1].text in _CONTRASTIVE
-            before = 0 if contrastive else _NEGATION_BEFORE
-            lo, hi = max(0, n.start - before), min(len(self.toks), n.end + _NEGATION_AFTER)
-            roots = set()
-            for i in range(lo, hi):
-                if i not in content or self.toks[i].clause != clause or n.start <= i < n.end:
-                    continue
-                if i < n.start and self._comma_between(i, n.start):
-                    continue
-                if i >= n.end and contrastive and self._comma_between(n.end - 1, i):
-                    continue
-                roots.add(self.toks[i].root)
-            scopes.append((n, roots))
-        return scopes
-
-    def relevant_sentences(self, claim_roots: set[str]) -> set[int]:
-        """Sentences sharing the claim's content words (two, or all if it has fewer); all if none do."""
-        need = min(2, len(claim_roots))
-        per: dict[int, set[str]] = {}
-        for i in self.content:
-            per.setdefault(self.toks[i].sentence, set()).add(self.toks[i].root)
-        everything = {t.sentence for t in self.toks}
-        if need == 0:
-            return everything
-        return {s for s, roots in per.items() if len(roots & claim_roots) >= need} or everything
-
-
 # --- the four checks ------------------------------------------------------------------------
 
 
-def _effect_with_object(text: _Text, cue: _Match) -> bool:
+def _effect_with_object(text: CueText, cue: CueMatch) -> bool:
     """ "Warming increases density" is causal; "density increases with depth" is not."""
     if text.toks[cue.start].text not in load_cues().effect_verbs or cue.end >= len(text.toks):
         return False
@@ -500,7 +73,7 @@ def _effect_with_object(text: _Text, cue: _Match) -> bool:
     return after.text not in STOP_WORDS and not after.text.endswith("ly") and any(c.isalpha() for c in after.text)
 
 
-def _overstated(claim: _Text, passage: _Text) -> CueFinding | None:
+def _overstated(claim: CueText, passage: CueText) -> CueFinding | None:
     if claim.labelled("hedge"):
         return None
     causal = claim.labelled("causal") + [e for e in claim.labelled("effect") if _effect_with_object(claim, e)]
@@ -519,7 +92,7 @@ def _overstated(claim: _Text, passage: _Text) -> CueFinding | None:
     return None
 
 
-def _negation(claim: _Text, passage: _Text) -> CueFinding | None:
+def _negation(claim: CueText, passage: CueText) -> CueFinding | None:
     claim_scopes, passage_scopes = claim.negation_scopes(), passage.negation_scopes()
     need = min(2, len(claim.roots))
     if need:
@@ -537,7 +110,7 @@ def _negation(claim: _Text, passage: _Text) -> CueFinding | None:
     return None
 
 
-def _nearest(text: _Text, i: int) -> _Match | None:
+def _nearest(text: CueText, i: int) -> CueMatch | None:
     """The direction cue nearest token ``i`` in its clause, within the window."""
     clause, best, best_key = text.toks[i].clause, None, None
     for cue in text.direction:
@@ -551,12 +124,12 @@ def _nearest(text: _Text, i: int) -> _Match | None:
     return best
 
 
-def _axis(cue: _Match) -> tuple[str, str]:
+def _axis(cue: CueMatch) -> tuple[str, str]:
     label = min(lab for lab in cue.labels if lab[0] == "dir")
     return label[1], label[2]
 
 
-def _comparison(text: _Text, cue: _Match) -> tuple[set[str], set[str]] | None:
+def _comparison(text: CueText, cue: CueMatch) -> tuple[set[str], set[str]] | None:
     """For "A is higher than B": the content words of A and of B, else None."""
     clause = text.toks[cue.start].clause
     than = next(
@@ -569,7 +142,7 @@ def _comparison(text: _Text, cue: _Match) -> tuple[set[str], set[str]] | None:
     return {text.toks[i].root for i in in_clause if i < than}, {text.toks[i].root for i in in_clause if i > than}
 
 
-def _swapped(claim: _Text, mine: _Match, passage: _Text, theirs: _Match) -> bool:
+def _swapped(claim: CueText, mine: CueMatch, passage: CueText, theirs: CueMatch) -> bool:
     """ "higher in A than in B" and "lower in B than in A" say the same thing."""
     ours, other = _comparison(claim, mine), _comparison(passage, theirs)
     if ours is None or other is None:
@@ -578,7 +151,7 @@ def _swapped(claim: _Text, mine: _Match, passage: _Text, theirs: _Match) -> bool
     return bool((a - b) & (d - c)) and bool((b - a) & (c - d))
 
 
-def _phrase_at(text: _Text, i: int) -> str:
+def _phrase_at(text: CueText, i: int) -> str:
     """The content word at ``i`` with up to two content words after it ("nest density")."""
     content, end = set(text.content), i + 1
     while end in content and end - i < 3 and text.toks[end].clause == text.toks[i].clause:
@@ -586,7 +159,7 @@ def _phrase_at(text: _Text, i: int) -> str:
     return text.surface(i, end)
 
 
-def _direction(claim: _Text, passage: _Text) -> CueFinding | None:
+def _direction(claim: CueText, passage: CueText) -> CueFinding | None:
     in_cue = {i for d in claim.direction for i in range(d.start, d.end)}
     passage_at: dict[str, list[int]] = {}
     for j in passage.content:
@@ -620,7 +193,7 @@ def _direction(claim: _Text, passage: _Text) -> CueFinding | None:
     return CueFinding("direction-flip", said, other, f'claim says "{said}", source says "{other}" about "{about}"')
 
 
-def _with_preposition(text: _Text, cue: _Match) -> str:
+def _with_preposition(text: CueText, cue: CueMatch) -> str:
     """The restricting term with the "in"/"among" before it, as the source wrote it."""
     start = cue.start
     if start >= 1 and text.toks[start - 1].text == "the" and start >= 2:
@@ -631,11 +204,11 @@ def _with_preposition(text: _Text, cue: _Match) -> str:
     return text.surface(start, cue.end)
 
 
-def _group_scope(claim: _Text, passage: _Text, sentences: set[int]) -> CueFinding | None:
+def _group_scope(claim: CueText, passage: CueText, sentences: set[int]) -> CueFinding | None:
     cues = load_cues()
     groups = {g.name: g for g in cues.scope_groups}
 
-    def labels(text: _Text, kind: str) -> set[Label]:
+    def labels(text: CueText, kind: str) -> set[Label]:
         return {lab for m in text.scope for lab in m.labels if lab[0] == kind}
 
     passage_groups = {lab[1] for lab in labels(passage, "group")}
@@ -661,7 +234,7 @@ def _group_scope(claim: _Text, passage: _Text, sentences: set[int]) -> CueFindin
     return None
 
 
-def _scope_finding(claim: _Text, kind: str, limit: str) -> CueFinding:
+def _scope_finding(claim: CueText, kind: str, limit: str) -> CueFinding:
     wider = [m for m in claim.scope if ("wider", kind) in m.labels]
     if wider:
         said = claim.said(wider[0])
@@ -669,7 +242,7 @@ def _scope_finding(claim: _Text, kind: str, limit: str) -> CueFinding:
     return CueFinding("scope-wider", "", limit, f'claim drops the source\'s limit "{limit}"')
 
 
-def _place_scope(claim: _Text, passage: _Text, sentences: set[int]) -> CueFinding | None:
+def _place_scope(claim: CueText, passage: CueText, sentences: set[int]) -> CueFinding | None:
     """ "in Norway" in the passage's finding, with no mention of Norway in the claim."""
     not_places = load_cues().not_places
     in_scope_term = {i for m in passage.scope for i in range(m.start, m.end)}
@@ -694,7 +267,7 @@ def _place_scope(claim: _Text, passage: _Text, sentences: set[int]) -> CueFindin
 
 def sentences(text: str) -> list[str]:
     """The sentences of ``text`` (pysbd), as written."""
-    return [text[a:b] for a, b in _sentence_spans(text)]
+    return [text[a:b] for a, b in sentence_spans(text)]
 
 
 def best_sentence(passage: str, claim_roots: set[str]) -> str:
@@ -704,12 +277,12 @@ def best_sentence(passage: str, claim_roots: set[str]) -> str:
     is about something else far more often than not (measured on SciFact SUPPORT pairs and
     the demo: "Soil properties that cannot be seen" beside the sentence that backs the claim).
     """
-    spans = _sentence_spans(passage)
+    spans = sentence_spans(passage)
     if len(spans) <= 1:
         return passage
 
     def shared(span: tuple[int, int]) -> int:
-        return len({t.root for t in _tokens(passage[span[0] : span[1]], None)} & claim_roots)
+        return len({t.root for t in tokens_of(passage[span[0] : span[1]], None)} & claim_roots)
 
     start, end = max(spans, key=shared)
     return passage[start:end]
@@ -717,7 +290,7 @@ def best_sentence(passage: str, claim_roots: set[str]) -> str:
 
 def closest_sentence(claim: str, passage: str) -> str:
     """The passage's sentence sharing most content words with ``claim`` (see best_sentence)."""
-    return best_sentence(passage, _Text(claim, split_sentences=False).roots)
+    return best_sentence(passage, CueText(claim, split_sentences=False).roots)
 
 
 # Axes whose poles say which way an effect goes, and the way each pole means: more, faster
@@ -749,7 +322,7 @@ def effect_direction(text: str) -> tuple[str, str] | None:
     with", "similar", "does not increase": a negated direction is no effect), or None when
     the text names no direction or names both.
     """
-    t = _Text(text, split_sentences=False)
+    t = CueText(text, split_sentences=False)
     ways: dict[str, str] = {}
     for cue in t.direction:
         if cue.start > 0 and t.toks[cue.start - 1].text in _NOUN_BEFORE:
@@ -772,9 +345,9 @@ def compare(claim: str, passage: str) -> list[CueFinding]:
     the order overstated, negation, direction-flip, scope-wider; at most one of each."""
     if not claim.strip() or not passage.strip():
         return []
-    c = _Text(claim, split_sentences=False)
+    c = CueText(claim, split_sentences=False)
     passage = best_sentence(passage, c.roots)
-    p = _Text(passage, split_sentences=True)
+    p = CueText(passage, split_sentences=True)
     sentences = p.relevant_sentences(c.roots)
     checks = (
         _overstated(c, p),

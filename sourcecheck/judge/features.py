@@ -11,7 +11,7 @@ from dataclasses import dataclass, replace
 from sourcecheck.judge.comparisons import compare_groups
 from sourcecheck.judge.cues import CueFinding, compare
 from sourcecheck.judge.effects import compare_effects
-from sourcecheck.judge.numbers import NumberFinding, unsupported_numbers
+from sourcecheck.judge.number_checks import NumberFinding, unsupported_numbers
 from sourcecheck.model import Hit
 
 FEATURE_NAMES = (

@@ -20,9 +20,10 @@ from dataclasses import replace
 from sourcecheck.judge.calibration import Calibration
 from sourcecheck.judge.features import Features, features_of
 from sourcecheck.judge.locators import page_label
-from sourcecheck.judge.numbers import in_claim_unit
+from sourcecheck.judge.number_checks import in_claim_unit
 from sourcecheck.judge.quotes import QuoteFinding, drift_message
 from sourcecheck.model import Band, Check, Citation, Evidence, Hit, Reason, Reference
+from sourcecheck.text import trim
 
 EVIDENCE_SHOWN = 2
 
@@ -177,9 +178,3 @@ def with_printed_pages(check: Check, printed: Sequence[str | None]) -> Check:
         replace(e, printed_page=printed[e.page - 1]) if 0 < e.page <= len(printed) else e for e in check.evidence
     ]
     return check
-
-
-def trim(text: str, words: int) -> str:
-    """The first ``words`` words of ``text``, with an ellipsis when cut."""
-    parts = text.split()
-    return " ".join(parts[:words]) + (" …" if len(parts) > words else "")

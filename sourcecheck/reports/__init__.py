@@ -1,1 +1,15 @@
-"""reports stage."""
+"""The report stage: pure functions from a :class:`~sourcecheck.model.Report` to output.
+
+The terminal report (:mod:`.terminal`, rich), the JSON contract (:mod:`.json_report`,
+described by ``report.schema.json`` beside it), the progress bar the CLI shows while
+sources are read, and the caution every report carries.
+"""
+
+from __future__ import annotations
+
+from sourcecheck.reports.caution import CAUTION
+from sourcecheck.reports.json_report import SCHEMA, dumps, to_dict
+from sourcecheck.reports.progress import progress_bar
+from sourcecheck.reports.terminal import render, summary_line
+
+__all__ = ["CAUTION", "SCHEMA", "dumps", "progress_bar", "render", "summary_line", "to_dict"]

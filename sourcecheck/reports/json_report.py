@@ -1,4 +1,4 @@
-"""The JSON report: the contract of DESIGN.md that downstream tools read.
+"""The JSON report: the contract downstream tools read, described by ``report.schema.json``.
 
 Fields may be added; the ones in the contract keep their names until ``SCHEMA`` changes.
 """

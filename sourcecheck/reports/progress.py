@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from collections.abc import Iterator
+from collections.abc import Callable, Iterator
 from contextlib import contextmanager
 
 from rich.console import Console
@@ -19,7 +19,7 @@ LABELS = {"read": "Reading sources", "embed": "Embedding passages"}
 
 
 @contextmanager
-def progress_bar(console: Console, enabled: bool = True) -> Iterator[object]:
+def progress_bar(console: Console, enabled: bool = True) -> Iterator[Callable[[str, int, int], None]]:
     """Yield a ``progress(stage, done, total)`` callable that drives one bar per stage."""
     if not enabled:
         yield lambda stage, done, total: None

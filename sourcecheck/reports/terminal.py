@@ -11,9 +11,9 @@ from rich.markup import escape
 from rich.padding import Padding
 from rich.text import Text
 
-from sourcecheck.judge.verdict import trim
 from sourcecheck.model import Band, Check, ClaimResult, Evidence, Report
 from sourcecheck.reports.caution import CAUTION
+from sourcecheck.text import trim
 
 BAND_STYLE = {
     Band.ANCHORED: "bold green",

@@ -27,7 +27,7 @@ from functools import lru_cache
 from rapidfuzz import fuzz
 
 from sourcecheck.model import MatchMethod, Problem, Reference, Source, SourceMatch
-from sourcecheck.sources._doi import find_dois, normalize_doi
+from sourcecheck.text import find_dois, normalize_doi
 
 #: Least character-level similarity (rapidfuzz ``fuzz.ratio``, 0-100, on lower-cased,
 #: punctuation-free titles). Measured on invented pairs in the tests: a one-letter typo or

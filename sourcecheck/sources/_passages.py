@@ -12,29 +12,16 @@ from __future__ import annotations
 import math
 import re
 from dataclasses import replace
-from functools import lru_cache
-
-import pysbd
 
 from sourcecheck.model import Passage
 from sourcecheck.sources._sections import heading_role, run_in_heading
+from sourcecheck.text import split_sentences
 
 #: A paragraph of at most this many words with no closing punctuation is a heading, a
 #: figure label or a title fragment ("2 Methods", "Table 3"): it states nothing a claim
 #: could rest on, so it makes no passage.
 FRAGMENT_WORDS = 3
 _CLOSES = re.compile(r"[.!?:;][\"'”’)\]]*$")
-
-
-@lru_cache(maxsize=1)
-def _segmenter() -> pysbd.Segmenter:
-    # clean=False keeps the text exactly as given, so passages quote the source verbatim.
-    return pysbd.Segmenter(language="en", clean=False)
-
-
-def split_sentences(text: str) -> list[str]:
-    """Sentences of ``text`` by pysbd, stripped, empties dropped."""
-    return [s.strip() for s in _segmenter().segment(text) if s.strip()]
 
 
 def _split_long(sentence: str, max_words: int) -> list[str]:
@@ -45,11 +32,6 @@ def _split_long(sentence: str, max_words: int) -> list[str]:
     pieces = math.ceil(len(words) / max_words)
     size = math.ceil(len(words) / pieces)
     return [" ".join(words[i : i + size]) for i in range(0, len(words), size)]
-
-
-def ends_sentence(text: str) -> bool:
-    """Whether ``text`` ends as a sentence does (closing punctuation, maybe a quote or bracket)."""
-    return bool(_CLOSES.search(text.rstrip()))
 
 
 def is_fragment(paragraph: str) -> bool:

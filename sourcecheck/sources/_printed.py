@@ -20,7 +20,7 @@ import math
 import re
 from collections import Counter
 
-from sourcecheck.sources._layout import NUMBER_ZONE, RUNNING_ZONE, is_page_number
+from sourcecheck.pdftext import NUMBER_ZONE, RUNNING_ZONE, is_page_number
 
 #: Share of text pages that must agree on one offset (see the module docstring).
 AGREEING_SHARE = 0.5

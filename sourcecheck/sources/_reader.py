@@ -24,25 +24,28 @@ from pathlib import Path
 from rapidfuzz import fuzz
 
 from sourcecheck.model import Passage, Problem, Source
-from sourcecheck.sources._chars import normalize_chars
-from sourcecheck.sources._doi import find_dois
-from sourcecheck.sources._layout import (
+from sourcecheck.pdftext import (
+    NO_TEXT,
+    PdfUnreadable,
+    RawPdf,
     drop_running_lines,
     group_paragraphs,
     join_lines,
+    normalize_chars,
+    one_line,
+    read_pdf,
     split_lines,
     typical_length,
     vocabulary,
 )
-from sourcecheck.sources._passages import ends_sentence, make_passages
-from sourcecheck.sources._pdf import PdfUnreadable, RawPdf, one_line, read_pdf
+from sourcecheck.sources._passages import make_passages
 from sourcecheck.sources._printed import printed_page_numbers
 from sourcecheck.sources._refsection import before_reference_heading, cut_reference_sections
 from sourcecheck.sources._sections import run_in_heading
+from sourcecheck.text import ends_sentence, find_dois
 
 #: How much of page 1 is kept for matching a reference to this source.
 FIRST_PAGE_CHARS = 2000
-NO_TEXT = "no text layer (scanned image?); run OCR first"
 
 # Metadata titles that name the file or the authoring tool rather than the work.
 _JUNK_TITLE = re.compile(

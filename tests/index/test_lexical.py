@@ -30,7 +30,7 @@ def test_bm25_score_equals_the_okapi_formula_worked_by_hand() -> None:
 
 
 def test_a_term_in_a_single_passage_ranks_that_passage_first() -> None:
-    # DESIGN.md: one folder-wide index must not flatten a rare term's score.
+    # DEVELOPERS.md, "Folder-wide BM25": one folder-wide index must not flatten a rare term's score.
     index = LexicalIndex([*DOCS, "marsh heron colony", "marsh reading"])
     scores = index.scores("survey")
     assert int(scores.argmax()) == 2

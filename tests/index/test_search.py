@@ -7,8 +7,8 @@ from rank_bm25 import BM25Okapi
 from sourcecheck.index.lexical import K1, B
 from sourcecheck.index.ranking import Ranker
 from sourcecheck.index.search import DENSE_WEIGHT, EvidenceIndex
-from sourcecheck.index.tokens import tokenize
 from sourcecheck.model import Passage
+from sourcecheck.text.tokens import tokenize
 
 PASSAGES = [
     Passage("a.pdf", 1, "Heron nests rose by 18% after dredging stopped.", 0),

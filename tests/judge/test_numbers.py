@@ -4,7 +4,8 @@ import math
 
 import pytest
 
-from sourcecheck.judge.numbers import in_claim_unit, quantities, same_value, unsupported_numbers
+from sourcecheck.judge.number_checks import in_claim_unit, same_value, unsupported_numbers
+from sourcecheck.judge.numbers import quantities
 
 
 def _one(text: str):

@@ -1,7 +1,9 @@
-"""The JSON report keeps the contract of DESIGN.md."""
+"""The JSON report keeps its contract: the schema shipped in sourcecheck/reports/report.schema.json."""
 
 import json
 from dataclasses import replace
+
+import pytest
 
 from sourcecheck.reports.caution import CAUTION
 from sourcecheck.reports.json_report import SCHEMA, dumps
@@ -50,16 +52,50 @@ def _with_printed_page(printed: str | None) -> dict:
 
 
 def test_evidence_keeps_the_pdf_page_and_adds_the_printed_one_when_known() -> None:
-    # DESIGN.md contract: "page" is the 1-based page of the PDF; "printed_page" is an added field.
+    # report.schema.json: "page" is the 1-based page of the PDF; "printed_page" is an added field.
     item = _with_printed_page("306")
     assert item["page"] == 2 and item["printed_page"] == "306"
     assert "printed_page" not in _with_printed_page(None)
 
 
 def test_evidence_names_its_section_only_when_known() -> None:
-    # DESIGN.md contract: fields are only ever added; "section" is one, absent when unknown.
+    # report.schema.json: fields are only ever added; "section" is one, absent when unknown.
     report = sample_report()
     check = report.claims[0].checks[0]
     assert "section" not in json.loads(dumps(report))["claims"][0]["checks"][0]["evidence"][0]
     check.evidence = [replace(e, section="results") for e in check.evidence]
     assert json.loads(dumps(report))["claims"][0]["checks"][0]["evidence"][0]["section"] == "results"
+
+
+def test_every_report_in_the_tests_is_validated_against_the_schema() -> None:
+    # conftest installs the validating wrapper before any test module imports to_dict.
+    from sourcecheck.reports import json_report
+    from tests import report_schema
+
+    before = report_schema.VALIDATED["count"]
+    json.loads(dumps(sample_report()))
+    assert getattr(json_report.to_dict, "validates_schema", False)
+    assert report_schema.VALIDATED["count"] == before + 1
+
+
+@pytest.mark.parametrize("field", ["band", "reasons", "score"])
+def test_the_schema_rejects_a_check_without_a_contract_field(field: str) -> None:
+    import jsonschema
+
+    from tests import report_schema
+
+    data = json.loads(dumps(sample_report()))
+    del data["claims"][0]["checks"][0][field]
+    with pytest.raises(jsonschema.ValidationError):
+        report_schema.validate(data)
+
+
+def test_the_schema_rejects_an_unknown_band() -> None:
+    import jsonschema
+
+    from tests import report_schema
+
+    data = json.loads(dumps(sample_report()))
+    data["claims"][0]["checks"][0]["band"] = "fine"
+    with pytest.raises(jsonschema.ValidationError):
+        report_schema.validate(data)

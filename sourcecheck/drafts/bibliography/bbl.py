@@ -11,11 +11,11 @@ from __future__ import annotations
 
 import re
 
-from sourcecheck.drafts.bibliography.latex_text import latex_to_text
+from sourcecheck.drafts.bibliography.latex_markup import latex_to_text
 from sourcecheck.drafts.bibliography.record import Person, make_reference, normalise_doi, year_of
-from sourcecheck.drafts.names import PARTICLES, family_key
-from sourcecheck.drafts.references import parse_authors, parse_entry
+from sourcecheck.drafts.bibliography.reflist import parse_authors, parse_entry
 from sourcecheck.model import Problem, Reference
+from sourcecheck.text import PARTICLES, family_key
 
 _BIBITEM_RE = re.compile(r"\\bibitem\s*")
 _END_RE = re.compile(r"\\end\s*\{thebibliography\}")

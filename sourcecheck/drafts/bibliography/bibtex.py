@@ -19,7 +19,7 @@ from bibtexparser.bibdatabase import UndefinedString
 from bibtexparser.bparser import BibTexParser
 from bibtexparser.customization import InvalidName, splitname
 
-from sourcecheck.drafts.bibliography.latex_text import latex_to_text
+from sourcecheck.drafts.bibliography.latex_markup import latex_to_text
 from sourcecheck.drafts.bibliography.record import Person, make_reference, normalise_doi, year_of
 from sourcecheck.model import Problem, Reference
 

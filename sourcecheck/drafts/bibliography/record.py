@@ -12,8 +12,8 @@ import re
 from collections.abc import Sequence
 from dataclasses import dataclass
 
-from sourcecheck.drafts.references import find_doi
 from sourcecheck.model import Reference
+from sourcecheck.text import find_doi
 
 _YEAR_RE = re.compile(r"(?<!\d)(1[5-9]\d{2}|20\d{2})(?!\d)")
 

@@ -1,0 +1,35 @@
+"""Shared plain-text layer: what every stage reads text with, owned by none.
+
+Tokens and stems (:mod:`.tokens`), the one sentence splitter (:mod:`.sentences`), author
+names (:mod:`.names`), DOI names (:mod:`.identifiers`) and display trimming
+(:mod:`.snippets`). It imports nothing of the stages above it.
+"""
+
+from __future__ import annotations
+
+from sourcecheck.text.identifiers import find_doi, find_dois, normalize_doi
+from sourcecheck.text.names import FAMILY, NAME_WORD, PARTICLE_RE, PARTICLES, ascii_slug, family_key
+from sourcecheck.text.sentences import ends_sentence, sentence_spans, split_sentences, wrapped_sentence_spans
+from sourcecheck.text.snippets import trim
+from sourcecheck.text.tokens import STOP_WORDS, coverage, s_stem, tokenize
+
+__all__ = [
+    "FAMILY",
+    "NAME_WORD",
+    "PARTICLES",
+    "PARTICLE_RE",
+    "STOP_WORDS",
+    "ascii_slug",
+    "coverage",
+    "ends_sentence",
+    "family_key",
+    "find_doi",
+    "find_dois",
+    "normalize_doi",
+    "s_stem",
+    "sentence_spans",
+    "split_sentences",
+    "tokenize",
+    "trim",
+    "wrapped_sentence_spans",
+]
