@@ -25,6 +25,7 @@ demo: $(STAMP)
 
 test: $(STAMP)
 	$(BIN)/ruff check sourcecheck tests bench scripts
+	$(BIN)/mypy
 	$(BIN)/python -m pytest -q
 
 lint: $(STAMP)

@@ -37,10 +37,10 @@ class EvidenceIndex:
         self._lexical = LexicalIndex([p.text for p in self.passages])
         self._last_query: tuple[str, np.ndarray] | None = None
         self._pages = np.asarray([p.page for p in self.passages], dtype=int)
-        self._by_source: dict[str, np.ndarray] = {}
+        positions: dict[str, list[int]] = {}
         for position, passage in enumerate(self.passages):
-            self._by_source.setdefault(passage.source, []).append(position)  # type: ignore[arg-type]
-        self._by_source = {k: np.asarray(v) for k, v in self._by_source.items()}
+            positions.setdefault(passage.source, []).append(position)
+        self._by_source: dict[str, np.ndarray] = {k: np.asarray(v) for k, v in positions.items()}
         self._first_ordinal = {k: min(self.passages[i].ordinal for i in v) for k, v in self._by_source.items()}
 
     def opens_source(self, passage: Passage) -> bool:

@@ -28,7 +28,8 @@ from __future__ import annotations
 
 import re
 
-from sourcecheck.judge.cues import CueFinding, effect_direction, sentences
+from sourcecheck.judge.cue_lists import CueFinding
+from sourcecheck.judge.cues import effect_direction, sentences
 from sourcecheck.judge.number_checks import same_value
 from sourcecheck.judge.numbers import Quantity, quantities
 from sourcecheck.text import STOP_WORDS, s_stem

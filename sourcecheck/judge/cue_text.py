@@ -189,7 +189,7 @@ def matchers() -> Matchers:
         + [(e, ("cancel",)) for e in cues.negation_cancels]
         + [(e, ("pseudo",)) for e in cues.not_negation]
     )
-    direction = [(e, ("pseudo",)) for e in cues.not_direction]
+    direction: list[tuple[str, tuple[str, ...]]] = [(e, ("pseudo",)) for e in cues.not_direction]
     for axis in cues.direction:
         for side, terms in zip(axis.sides, axis.terms, strict=True):
             direction += [(e, ("dir", axis.name, side)) for e in terms]

@@ -185,12 +185,13 @@ def _direction(claim: CueText, passage: CueText) -> CueFinding | None:
             disagree += 1
             # Report the cue's object ("increased density") over its subject ("warming increased").
             if first is None or (not first[3] and cue.end <= i):
-                other = opposite[0]
-                first = (claim.said(cue), passage.said(other), _phrase_at(claim, i), cue.end <= i)
+                first = (claim.said(cue), passage.said(opposite[0]), _phrase_at(claim, i), cue.end <= i)
     if first is None or disagree <= agree:
         return None
-    said, other, about, _ = first
-    return CueFinding("direction-flip", said, other, f'claim says "{said}", source says "{other}" about "{about}"')
+    claimed, reported, about, _ = first
+    return CueFinding(
+        "direction-flip", claimed, reported, f'claim says "{claimed}", source says "{reported}" about "{about}"'
+    )
 
 
 def _with_preposition(text: CueText, cue: CueMatch) -> str:

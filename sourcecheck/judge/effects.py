@@ -21,7 +21,8 @@ from __future__ import annotations
 import re
 from dataclasses import dataclass
 
-from sourcecheck.judge.cues import CueFinding, closest_sentence, effect_direction
+from sourcecheck.judge.cue_lists import CueFinding
+from sourcecheck.judge.cues import closest_sentence, effect_direction
 
 # The Lancet writes the decimal point as a raised dot ("1·75").
 _NUMBER = r"(\d+(?:[.·]\d+)?|[.·]\d+)"
@@ -161,7 +162,7 @@ def compare_effects(claim: str, passage: str) -> list[CueFinding]:
     way, words = said
     sentence = closest_sentence(claim, passage)
     found = estimates(sentence)
-    directions = {e.direction for e in found} - {None}
+    directions = {e.direction for e in found if e.direction is not None}
     if not directions:
         return _association_disagrees(way, words, sentence)
     if len(directions) != 1:

@@ -9,7 +9,8 @@ from __future__ import annotations
 from dataclasses import dataclass, replace
 
 from sourcecheck.judge.comparisons import compare_groups
-from sourcecheck.judge.cues import CueFinding, compare
+from sourcecheck.judge.cue_lists import CueFinding
+from sourcecheck.judge.cues import compare
 from sourcecheck.judge.effects import compare_effects
 from sourcecheck.judge.number_checks import NumberFinding, unsupported_numbers
 from sourcecheck.model import Hit

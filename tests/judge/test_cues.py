@@ -12,7 +12,8 @@ from importlib import resources
 
 import pytest
 
-from sourcecheck.judge.cues import CueFinding, compare, load_cues
+from sourcecheck.judge.cue_lists import CueFinding, load_cues
+from sourcecheck.judge.cues import compare
 
 TOML_TEXT = resources.files("sourcecheck.judge").joinpath("cue_lists.toml").read_text(encoding="utf-8")
 

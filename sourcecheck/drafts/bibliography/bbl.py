@@ -110,6 +110,8 @@ def _typeset_entry(key: str, label: str, body: str, line: int) -> Reference:
     doi = normalise_doi(full)
     label_text = latex_to_text(_NATEXLAB_RE.sub(r"\1", label))
     label_families, label_year, et_al = _natbib_label(label_text)
+    container: str | None
+    title: str | None
     if len(blocks) >= 2:
         people = _names_of_block(blocks[0])
         if label_families and [family_key(p.family) for p in people] != [family_key(f) for f in label_families]:
@@ -251,7 +253,7 @@ def _biber_names(body: str, role: str) -> tuple[list[Person], bool]:
 def _biber_person(group: str) -> Person | None:
     """One name: ``{{hash=..}{family={X}, given={Y}, prefix={van}}}`` or ``{{}{X}{X.}{Y}{Y.}{van}...}``."""
     parts = list(_top_groups(group))
-    named = {}
+    named: dict[str, str] = {}
     for part in parts:
         for match in re.finditer(r"(?<![a-z])(family|given|prefix|suffix)\s*=\s*", part):
             value = group_at(part, match.end())

@@ -156,7 +156,8 @@ def find_reference_section(lines: Sequence[str]) -> ReferenceSection | None:
             continue
         index += heading.lines if heading else 1
     strong = [s for s in found if not _WEAK_TITLE_RE.match(s.title.rstrip(":").strip())]
-    return (strong or found or [None])[-1]
+    kept = strong or found
+    return kept[-1] if kept else None
 
 
 def _section_end(lines: Sequence[str], start: int, level: int | None) -> int:

@@ -124,9 +124,10 @@ def _sentences(block: TextBlock) -> list[_Sentence]:
                 sentence.end = following.end
                 break
     for cite in block.cites:
-        index = next((i for i, s in enumerate(sentences) if s.start <= cite.start < s.end), None)
-        if index is None:
+        owner = next((i for i, s in enumerate(sentences) if s.start <= cite.start < s.end), None)
+        if owner is None:
             continue
+        index = owner
         sentence = sentences[index]
         # Only a marker set close against the stop moves: "\citet{k} found" after ". " opens its sentence.
         attached = index > 0 and cite.start == sentence.start == sentences[index - 1].end

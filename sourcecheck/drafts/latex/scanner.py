@@ -30,6 +30,16 @@ class Scanner:
         self.envs: list[str] = []
         self.depth = 0
 
+    # --- what the converter built on this base provides ------------------------------
+
+    def content(self, i: int, end: int, w: Writer) -> None:
+        """Write the prose of ``t[i:end]`` to ``w`` (the converter's)."""
+        raise NotImplementedError
+
+    def delimited_math(self, i: int, closing: str, end: int, w: Writer) -> int:
+        """Skip mathematics up to ``closing`` (the converter's)."""
+        raise NotImplementedError
+
     # --- problems and places ---------------------------------------------------------
 
     def origin(self, index: int) -> int:

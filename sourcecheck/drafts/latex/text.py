@@ -205,8 +205,8 @@ class _Converter(Scanner):
                 return i
             return self.close.get(body, (end, end))[1]
         i = self.drop_optionals(i, end)
-        body = self.braced(self.skip_space(i, end), end)
-        return body[2] if body else i
+        group = self.braced(self.skip_space(i, end), end)
+        return group[2] if group else i
 
     # --- environments ----------------------------------------------------------------
 
