@@ -29,6 +29,7 @@ import time
 from dataclasses import asdict, dataclass, field
 from datetime import datetime
 from pathlib import Path
+from types import ModuleType
 
 from pypdf import PdfReader
 
@@ -128,14 +129,25 @@ def check_command(draft: Path, sources: Path, cache: Path, report: Path) -> list
     ]
 
 
+def load_builder() -> ModuleType:
+    """The synthetic corpus builder (bench/synthetic_corpus.py), loaded as a module.
+
+    Registered in ``sys.modules`` before it runs: its dataclasses look their module up there,
+    and without it ``make bench`` failed on a fresh clone.
+    """
+    spec = importlib.util.spec_from_file_location("synthetic_corpus", REPO / "bench" / "synthetic_corpus.py")
+    assert spec and spec.loader
+    module = importlib.util.module_from_spec(spec)
+    sys.modules.setdefault("synthetic_corpus", module)
+    spec.loader.exec_module(module)
+    return module
+
+
 def ensure_synthetic(folder: Path) -> None:
     """Build the default synthetic corpus (40 PDFs x 10 pages, seed 0) if it is not there."""
     if (folder / "draft.md").is_file() and (folder / "sources").is_dir():
         return
-    spec = importlib.util.spec_from_file_location("synthetic_corpus", REPO / "bench" / "synthetic_corpus.py")
-    assert spec and spec.loader
-    module = importlib.util.module_from_spec(spec)
-    spec.loader.exec_module(module)
+    module = load_builder()
     print(f"building the synthetic corpus in {folder} ...", file=sys.stderr)
     module.build(folder)
 

@@ -9,6 +9,7 @@ that stops the run (missing draft, missing sources folder, unreadable model or m
 from __future__ import annotations
 
 import argparse
+import io
 import os
 import sys
 import tempfile
@@ -98,14 +99,13 @@ def _run_check(args: argparse.Namespace) -> int:
     if args.format == "json":
         text = dumps(report)
     else:
-        console = Console(record=True, width=100) if args.output else Console()
-        if args.output:
-            with console.capture():
-                render(report, console)
-            text = console.export_text()
-        else:
-            render(report, console)
+        if not args.output:
+            render(report, Console())
             return EXIT_OK
+        # A plain-text file: no colours, a fixed width, rendered into memory and written whole.
+        buffer = io.StringIO()
+        render(report, Console(file=buffer, width=100, color_system=None, force_terminal=False))
+        text = buffer.getvalue()
     if args.output:
         _write_atomically(args.output, text)
     else:

@@ -10,6 +10,7 @@ from pathlib import Path
 import pytest
 
 from sourcecheck.cli import EXIT_INPUT, EXIT_OK, main
+from sourcecheck.reports import CAUTION
 from tests.pdf_fixtures import encrypted_pdf, image_only_pdf, write_not_a_pdf, write_truncated_pdf
 from tests.test_pipeline import planted_rows
 
@@ -69,6 +70,21 @@ def test_output_file_holds_the_report_and_nothing_goes_to_stdout(
     assert code == EXIT_OK and out == ""
     assert json.loads(target.read_text(encoding="utf-8"))["draft"] == str(DRAFT)
     assert [p.name for p in target.parent.iterdir()] == ["report.json"]  # no temporary file left
+
+
+def test_text_output_file_holds_the_whole_text_report(
+    cache: Path, tmp_path: Path, capsys: pytest.CaptureFixture[str]
+) -> None:
+    target = tmp_path / "report.txt"
+    code, out, _ = _run(
+        capsys, "check", str(DRAFT), "--sources", str(SOURCES), "--cache", str(cache), "--output", str(target)
+    )
+    text = target.read_text(encoding="utf-8")
+    flat = " ".join(text.split())
+    assert code == EXIT_OK and out == ""
+    assert f"{len(planted_rows())} checks:" in flat
+    assert " ".join(CAUTION.split()) in flat
+    assert "\x1b[" not in text  # a file for a person to read or mail: no terminal colour codes
 
 
 def test_text_report_shows_summary_and_caution(cache: Path, capsys: pytest.CaptureFixture[str]) -> None:
