@@ -1,12 +1,14 @@
 """Shared plain-text layer: what every stage reads text with, owned by none.
 
 Tokens and stems (:mod:`.tokens`), the one sentence splitter (:mod:`.sentences`), author
-names (:mod:`.names`), DOI names (:mod:`.identifiers`) and display trimming
-(:mod:`.snippets`). It imports nothing of the stages above it.
+names (:mod:`.names`), DOI names (:mod:`.identifiers`), display trimming
+(:mod:`.snippets`) and control characters made visible for a person (:mod:`.display`).
+It imports nothing of the stages above it.
 """
 
 from __future__ import annotations
 
+from sourcecheck.text.display import visible
 from sourcecheck.text.identifiers import find_doi, find_dois, normalize_doi
 from sourcecheck.text.names import FAMILY, NAME_WORD, PARTICLE_RE, PARTICLES, ascii_slug, family_key
 from sourcecheck.text.sentences import ends_sentence, sentence_spans, split_sentences, wrapped_sentence_spans
@@ -31,5 +33,6 @@ __all__ = [
     "split_sentences",
     "tokenize",
     "trim",
+    "visible",
     "wrapped_sentence_spans",
 ]

@@ -22,4 +22,3 @@ def test_the_builder_loads_and_builds_in_a_fresh_interpreter(tmp_path: Path) -> 
     assert done.returncode == 0, done.stderr
     assert done.stdout.strip() == "2"
     assert len(list((tmp_path / "sources").glob("*.pdf"))) == 2
-
