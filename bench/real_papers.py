@@ -204,15 +204,16 @@ def summary(rows: list[dict], got: list[Outcome | None]) -> list[str]:
     for expected in BANDS[:4]:
         counts = Counter(g.band if g else "none" for r, g in pairs if r["band"] == expected)
         lines.append(f"{expected:<12}" + "".join(f"{counts[b]:>13}" for b in BANDS) + f"{counts['none']:>7}")
-    lines += ["", "per kind:     n  band ok  reason ok  page@1  page±1"]
+    lines += ["", "per kind:     n  flagged  band ok  reason ok  page@1  page±1"]
     for kind in dict.fromkeys(r["kind"] for r in rows):
         group = [(r, g) for r, g in pairs if r["kind"] == kind]
+        raised = sum(g is None or g.band != "anchored" for _, g in group)
         band_ok = sum(g is not None and g.band == r["band"] for r, g in group)
         reason_ok = "-" if kind in BACKED_KINDS else str(sum(right_reason(r, g) for r, g in group))
         pages = [(page_hit(r, g), page_hit(r, g, 1)) for r, g in group if page_hit(r, g) is not None]
         hit1 = str(sum(p for p, _ in pages)) if pages else "-"
         near = str(sum(n for _, n in pages)) if pages else "-"
-        lines.append(f"{kind:<13}{len(group):>3}{band_ok:>9}{reason_ok:>11}{hit1:>8}{near:>8}")
+        lines.append(f"{kind:<13}{len(group):>3}{raised:>9}{band_ok:>9}{reason_ok:>11}{hit1:>8}{near:>8}")
     return lines
 
 
