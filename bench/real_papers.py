@@ -64,6 +64,7 @@ class Outcome:
     reasons: tuple[tuple[str, str], ...]
     page: int | None
     evidence: str
+    section: str = ""
 
 
 def read_claims(path: Path) -> list[dict]:
@@ -146,6 +147,7 @@ def outcomes(report: Report, rows: list[dict], numbers: dict[str, int]) -> list[
                 reasons=tuple((r.code, r.message) for r in check.reasons),
                 page=first.page if first else None,
                 evidence=first.text if first else "",
+                section=first.section if first else "",
             )
         )
     return found
@@ -153,6 +155,10 @@ def outcomes(report: Report, rows: list[dict], numbers: dict[str, int]) -> list[
 
 def _pct(part: int, whole: int) -> str:
     return f"{part}/{whole} ({100 * part / whole:.0f}%)" if whole else "0/0"
+
+
+def _tally(counts: Counter) -> str:
+    return ", ".join(f"{key} {n}" for key, n in counts.most_common()) or "none"
 
 
 def page_hit(row: dict, got: Outcome | None, slack: int = 0) -> bool | None:
@@ -204,6 +210,11 @@ def summary(rows: list[dict], got: list[Outcome | None]) -> list[str]:
     for expected in BANDS[:4]:
         counts = Counter(g.band if g else "none" for r, g in pairs if r["band"] == expected)
         lines.append(f"{expected:<12}" + "".join(f"{counts[b]:>13}" for b in BANDS) + f"{counts['none']:>7}")
+    off_page = Counter(g.section or "unknown" for r, g in scored if g is not None and not page_hit(r, g))
+    lines.append("")
+    lines.append("sections of first evidence off the gold page: " + _tally(off_page))
+    alarms = Counter(code for r, g in pairs if r["kind"] in BACKED_KINDS and g for code, _ in g.reasons)
+    lines.append("reasons given on faithful claims and exact quotations: " + _tally(alarms))
     lines += ["", "per kind:     n  flagged  band ok  reason ok  page@1  page±1"]
     for kind in dict.fromkeys(r["kind"] for r in rows):
         group = [(r, g) for r, g in pairs if r["kind"] == kind]
@@ -230,7 +241,8 @@ def misses(rows: list[dict], got: list[Outcome | None]) -> list[str]:
         if outcome is None:
             lines.append("  got:      no check for this citation")
         else:
-            lines.append(f"  got:      {outcome.band}, evidence p{outcome.page}: {outcome.evidence[:160]!r}")
+            where = f"p{outcome.page}" + (f" ({outcome.section})" if outcome.section else "")
+            lines.append(f"  got:      {outcome.band}, evidence {where}: {outcome.evidence[:160]!r}")
             lines += [f"            {code}: {message}" for code, message in outcome.reasons]
     return lines
 
