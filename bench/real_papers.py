@@ -3,7 +3,7 @@
 Usage:
     python bench/real_papers.py [--claims tests/fixtures/real_papers/claims.jsonl]
                                 [--papers ../shared/data/papers] [--out bench/out/real_papers]
-                                [--cache bench/out/real_papers/cache] [--show]
+                                [--cache bench/out/real_papers/cache] [--split all|fit|holdout] [--show]
 
 The claims (tests/fixtures/real_papers/README.md) were written by reading the papers; each
 says which paper it cites, what kind of claim it is (faithful, changed number, reversed
@@ -21,6 +21,8 @@ check`` does and prints:
 - faithful claims (and exact quotations) flagged, i.e. not ``anchored``;
 - the confusion table of expected against given band, and figures per kind.
 
+``--split`` keeps the claims of one half of the papers (the fixture's ``split`` field,
+fixed per paper); anything tuned on this set is fitted on "fit" and reported on "holdout".
 ``--show`` lists each miss (wrong band, missing reason, or evidence on another page) with
 the claim, what was expected and what came back. Nothing is fitted here: the set measures.
 """
@@ -253,6 +255,7 @@ def main(argv: list[str] | None = None) -> int:
     parser.add_argument("--papers", type=Path, default=DEFAULT_PAPERS)
     parser.add_argument("--out", type=Path, default=DEFAULT_OUT)
     parser.add_argument("--cache", type=Path, default=None, help="default: OUT/cache")
+    parser.add_argument("--split", choices=("all", "fit", "holdout"), default="all")
     parser.add_argument("--show", action="store_true", help="list each miss")
     args = parser.parse_args(argv)
     readme = args.papers / "README.md"
@@ -262,7 +265,7 @@ def main(argv: list[str] | None = None) -> int:
             return 2
     from sourcecheck.pipeline import run  # imported late: loading torch is slow
 
-    rows = read_claims(args.claims)
+    rows = [r for r in read_claims(args.claims) if args.split in ("all", r.get("split"))]
     draft, mapping, numbers = build_draft(rows, read_paper_table(readme), args.out)
     started = time.perf_counter()
     report = run(draft, args.papers, mapping=mapping, cache_dir=args.cache or args.out / "cache")
@@ -272,7 +275,8 @@ def main(argv: list[str] | None = None) -> int:
         for row, outcome in zip(rows, got, strict=True):
             given = outcome.__dict__ if outcome else None
             handle.write(json.dumps({"id": row["id"], "expected": row, "got": given}, ensure_ascii=False) + "\n")
-    print(f"sourcecheck on real papers: {len(rows)} claims, {len(set(numbers) & {r['file'] for r in rows})} papers")
+    papers = len({r["file"] for r in rows})
+    print(f"sourcecheck on real papers: {len(rows)} claims, {papers} papers, split {args.split}")
     print(f"draft {draft}, sources {args.papers}")
     print("\n".join(summary(rows, got)))
     if args.show:

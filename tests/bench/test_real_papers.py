@@ -112,6 +112,11 @@ def test_every_line_is_a_claim_with_the_fields_and_allowed_values() -> None:
 
 def test_the_set_has_the_size_and_mix_its_readme_promises() -> None:
     rows = _rows()
+    splits = {row["file"]: set() for row in rows}
+    for row in rows:
+        splits[row["file"]].add(row["split"])
+    assert all(len(s) == 1 for s in splits.values())  # a paper's claims stay in one split
+    assert Counter(next(iter(s)) for s in splits.values()).keys() == {"fit", "holdout"}
     kinds = Counter(r["kind"] for r in rows)
     assert len(rows) >= 70 and len({r["file"] for r in rows}) >= 15
     assert all(kinds[kind] >= least for kind, least in MINIMUM.items()), kinds
