@@ -69,9 +69,24 @@ class Outcome:
     section: str = ""
 
 
+class BadClaims(ValueError):
+    """The claims file has a line that is not a JSON object; the message names file and line."""
+
+
 def read_claims(path: Path) -> list[dict]:
     """The fixture's rows, one JSON object per line."""
-    return [json.loads(line) for line in path.read_text(encoding="utf-8").splitlines() if line.strip()]
+    rows = []
+    for number, line in enumerate(path.read_text(encoding="utf-8").splitlines(), 1):
+        if not line.strip():
+            continue
+        try:
+            row = json.loads(line)
+        except json.JSONDecodeError as exc:
+            raise BadClaims(f"{path}: line {number} is not JSON ({exc.msg})") from None
+        if not isinstance(row, dict) or not {"file", "claim", "kind", "band", "page"} <= row.keys():
+            raise BadClaims(f"{path}: line {number} lacks file, claim, kind, band or page")
+        rows.append(row)
+    return rows
 
 
 def read_paper_table(readme: Path) -> dict[str, str]:
@@ -265,7 +280,11 @@ def main(argv: list[str] | None = None) -> int:
             return 2
     from sourcecheck.pipeline import run  # imported late: loading torch is slow
 
-    rows = [r for r in read_claims(args.claims) if args.split in ("all", r.get("split"))]
+    try:
+        rows = [r for r in read_claims(args.claims) if args.split in ("all", r.get("split"))]
+    except BadClaims as exc:
+        print(exc, file=sys.stderr)
+        return 2
     draft, mapping, numbers = build_draft(rows, read_paper_table(readme), args.out)
     started = time.perf_counter()
     report = run(draft, args.papers, mapping=mapping, cache_dir=args.cache or args.out / "cache")

@@ -246,3 +246,16 @@ def test_bench_runs_the_pipeline_on_an_invented_paper(tmp_path: Path, capsys: py
         if line.startswith(("anchored ", "conflict "))
     }
     assert sum(map(int, given["anchored"] + given["conflict"])) == 2  # each claim once in the confusion table
+
+
+def test_a_broken_claims_line_is_one_message_naming_file_and_line(
+    tmp_path: Path, capsys: pytest.CaptureFixture[str]
+) -> None:
+    claims = tmp_path / "claims.jsonl"
+    claims.write_text('{"file": "a.pdf", "claim": "x", "kind": "faithful", "band": "anchored", "page": 1}\n{oops\n')
+    (tmp_path / "README.md").write_text("| File | Reference |\n|---|---|\n| a.pdf | A. B. C 1:1 (2000). |\n")
+    code = _load().main(["--claims", str(claims), "--papers", str(tmp_path), "--out", str(tmp_path / "out")])
+    assert code == 2
+    assert capsys.readouterr().err.strip().splitlines() == [
+        f"{claims}: line 2 is not JSON (Expecting property name enclosed in double quotes)"
+    ]
