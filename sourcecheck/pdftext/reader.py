@@ -56,6 +56,18 @@ def quiet_pypdf() -> Iterator[None]:
         logger.setLevel(level)
 
 
+def without_lone_surrogates(text: str) -> str:
+    """``text`` with each unpaired UTF-16 surrogate replaced by U+FFFD.
+
+    pypdf decodes some fonts' ToUnicode maps into lone surrogates (seen on real journal
+    PDFs); such a string is not valid Unicode, so it cannot be written as UTF-8 to the
+    cache or a JSON report. A surrogate pair still becomes the one character it encodes.
+    """
+    if not any("\ud800" <= ch <= "\udfff" for ch in text):
+        return text
+    return text.encode("utf-16", "surrogatepass").decode("utf-16", "replace")
+
+
 def one_line(exc: BaseException) -> str:
     """An exception as one short line: its text with whitespace collapsed, or its type."""
     text = " ".join(str(exc).split())
@@ -153,7 +165,7 @@ def read_pdf(data: bytes) -> RawPdf:
         last_error: Exception | None = None
         for page in pages:
             try:
-                texts.append(page.extract_text() or "")
+                texts.append(without_lone_surrogates(page.extract_text() or ""))
             except Exception as exc:
                 failed += 1
                 last_error = exc

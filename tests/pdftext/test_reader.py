@@ -35,3 +35,12 @@ def test_quiet_restores_the_pypdf_logger_level() -> None:
         assert logger.level == logging.INFO
     finally:
         logger.setLevel(logging.NOTSET)
+
+
+def test_lone_surrogates_become_replacement_characters_and_pairs_join() -> None:
+    # UTF-16 surrogates (Unicode 15.0, section 3.8): a high one must be followed by a low one.
+    text = "a\udc8fb \ud835\udc9c c\ud835"
+    cleaned = _pdf.without_lone_surrogates(text)
+    assert cleaned == "a\ufffdb \U0001d49c c\ufffd"
+    cleaned.encode("utf-8")  # no longer raises
+    assert _pdf.without_lone_surrogates("plain ﬁ text") == "plain ﬁ text"
