@@ -216,6 +216,7 @@ def _group_scope(claim: CueText, passage: CueText, sentences: set[int]) -> CueFi
     passage_wider = {lab[1] for lab in labels(passage, "wider")}
     claim_groups = {lab[1] for lab in labels(claim, "group")}
     claim_covers = {lab[1] for lab in labels(claim, "cover")}
+    claim_roots = {tok.root for tok in claim.toks}
     for kind in ("species", "in-vitro", "subgroup", "setting"):
         if kind in _WHOLE_PASSAGE_KINDS and kind in passage_wider:
             continue  # the passage speaks of humans or in-vivo work too: not clearly restricted
@@ -227,6 +228,8 @@ def _group_scope(claim: CueText, passage: CueText, sentences: set[int]) -> CueFi
             if group.opposite and group.opposite in passage_groups:
                 continue
             kept = group.name in claim_groups or kind in claim_covers
+            # The claim writes the very words ("pregnant women" keeps the passage's "women").
+            kept = kept or all(passage.toks[n].root in claim_roots for n in range(m.start, m.end))
             if kind in _WHOLE_PASSAGE_KINDS:
                 kept = kept or any(groups[n].kind == kind for n in claim_groups)
             if kept:

@@ -402,3 +402,13 @@ def test_not_restricted_to_widens_a_finding_rather_than_denying_it(widening: str
     claim = "The variant is associated with joint disease in carriers of the B27 allele."
     passage = f"The association of the variant with joint disease {widening} carriers of the B27 allele."
     assert "negation" not in _codes(claim, passage)
+
+
+def test_a_claim_that_writes_the_source_s_group_keeps_its_scope() -> None:
+    # The passage's limit "women" is kept by a claim about "pregnant women" (BioScope-style
+    # scope reading: the limiting term is present in the claim; common practice, no source).
+    findings = compare(
+        "The trial randomised 2,212 pregnant women to lifestyle advice or standard care",
+        "We recruited and randomised 2,212 women to lifestyle advice or standard care.",
+    )
+    assert "scope-wider" not in {f.code for f in findings}

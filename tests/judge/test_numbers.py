@@ -392,3 +392,9 @@ def test_a_decimal_comma_in_the_source_backs_a_decimal_point_in_the_claim() -> N
     assert unsupported_numbers("Cover rose by 12.5%.", "Cover rose by 12,5 % on every site.", []) == []
     [finding] = unsupported_numbers("Cover rose by 12.5%.", "Cover rose by 14,5 % on every site.", [])
     assert finding.counterpart is not None and finding.counterpart.text == "14,5 %"
+
+
+def test_a_raised_decimal_point_is_a_decimal_point() -> None:
+    # The Lancet prints decimals with a middle dot ("3·4%", "OR 1·62"; house style, from memory).
+    found = {(q.value, q.kind) for q in quantities("Injury accounted for 98 (3·4%) of datapoints; SMR 11·86")}
+    assert (3.4, "%") in found and (11.86, "") in found
