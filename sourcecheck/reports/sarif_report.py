@@ -29,6 +29,7 @@ from urllib.parse import quote
 from sourcecheck.model import Band, Check, ClaimResult, Report
 from sourcecheck.reports.caution import CAUTION
 from sourcecheck.reports.wording import BAND_MEANINGS, REASON_CODES, is_flagged, rule_code, where
+from sourcecheck.text import visible
 
 SARIF_VERSION = "2.1.0"
 #: The schema's address as the OASIS standard publishes it (its ``$id`` in the shared copy).
@@ -63,14 +64,16 @@ def _rule(code: str) -> dict[str, Any]:
 
 
 def _message(result: ClaimResult, check: Check) -> str:
-    """What a reviewer reads beside the line: the band, the reasons and where the closest passage is."""
+    """What a reviewer reads beside the line: the band, the reasons and where the closest passage is.
+
+    Plain text (SARIF's ``message.text``), with control characters made visible."""
     parts = [f"{check.citation.label} is {check.band.value} (score {check.score:.2f}): {BAND_MEANINGS[check.band][0]}."]
     parts += [f"{r.code}: {r.message}." for r in check.reasons]
     if check.evidence:
         best = check.evidence[0]
         parts.append(f"Closest passage: {best.source}, {where(best)}.")
     parts.append(f"Claim: {result.claim.text}")
-    return " ".join(parts)
+    return visible(" ".join(parts))
 
 
 def _result(report: Report, result: ClaimResult, check: Check, rules: list[str]) -> dict[str, Any]:
