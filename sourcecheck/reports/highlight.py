@@ -9,6 +9,7 @@ passage lights up for "nest" in the claim, "the" never does (a stop word).
 from __future__ import annotations
 
 import re
+from collections.abc import Iterable
 
 from sourcecheck.text import tokenize
 
@@ -23,30 +24,31 @@ def claim_words(claim: str) -> frozenset[str]:
 
 
 def segments(passage: str, wanted: frozenset[str]) -> list[tuple[str, bool]]:
-    """``passage`` cut into (text, is a claim word) pieces that join back to the passage exactly."""
+    """``passage`` cut into (text, is a claim word) pieces that join back to the passage exactly.
+
+    Claim words separated only by spaces form one marked piece ("nest entrances"), so the
+    reader sees phrases rather than a dotted line of single words.
+    """
     pieces: list[tuple[str, bool]] = []
     last = 0
     for match in _WORD.finditer(passage):
+        pieces.append((passage[last : match.start()], False))
         tokens = tokenize(match.group())
-        hit = bool(tokens) and all(t in wanted for t in tokens)
-        if match.start() > last:
-            pieces.append((passage[last : match.start()], False))
-        if hit and pieces and pieces[-1][1] is False and pieces[-1][0].isspace() and len(pieces) > 1 and pieces[-2][1]:
-            pieces[-2:] = [(pieces[-2][0] + pieces[-1][0] + match.group(), True)]  # one mark per run of words
-        else:
-            pieces.append((match.group(), hit))
+        pieces.append((match.group(), bool(tokens) and all(t in wanted for t in tokens)))
         last = match.end()
-    if last < len(passage):
-        pieces.append((passage[last:], False))
-    return _merge_plain(pieces)
+    pieces.append((passage[last:], False))
+    for i in range(1, len(pieces) - 1):  # a space between two marked words joins the mark
+        if pieces[i - 1][1] and pieces[i + 1][1] and pieces[i][0].isspace():
+            pieces[i] = (pieces[i][0], True)
+    return _joined(p for p in pieces if p[0])
 
 
-def _merge_plain(pieces: list[tuple[str, bool]]) -> list[tuple[str, bool]]:
-    """Adjacent unmarked pieces as one, so the page holds few text nodes."""
+def _joined(pieces: Iterable[tuple[str, bool]]) -> list[tuple[str, bool]]:
+    """Neighbouring pieces with the same mark as one, so the page holds few elements."""
     merged: list[tuple[str, bool]] = []
     for text, hit in pieces:
-        if merged and not hit and not merged[-1][1]:
-            merged[-1] = (merged[-1][0] + text, False)
+        if merged and merged[-1][1] == hit:
+            merged[-1] = (merged[-1][0] + text, hit)
         else:
             merged.append((text, hit))
     return merged

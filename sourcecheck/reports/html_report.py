@@ -55,6 +55,8 @@ class PassageView:
 
 @dataclass(frozen=True)
 class CheckView:
+    """One citation's check as the template shows it: every string already made visible."""
+
     band: str
     score: float
     citation: str
@@ -66,6 +68,8 @@ class CheckView:
 
 @dataclass(frozen=True)
 class ClaimView:
+    """A claim with its checks; ``worst`` is the band that colours its edge."""
+
     id: str
     place: str
     text: str

@@ -4,7 +4,8 @@ What a reader does is what is checked: every claim and check is on the page, the
 reason filters hide what they should (so the page's script runs under its own
 Content-Security-Policy), the folded passages open, and a page built from a PDF and a
 draft that carry ``<script>`` and ``onerror=`` runs nothing and shows those characters.
-A screenshot of the demo is kept in bench/out/report-html/ (git-ignored).
+Screenshots of both pages are kept in bench/out/report-html/ (git-ignored; ``pytest -s``
+prints the paths).
 
 Playwright drives the system browser (``executable_path``); no browser is downloaded.
 Without chromium the tests fail and say how to get it (``make browser``): they are never
@@ -151,4 +152,7 @@ def test_hostile_page_runs_nothing_and_shows_the_characters(
     assert opened.errors == []
     opened.tick("band", "conflict", on=False)  # and the page's own script still works
     assert page.text_content("#shown-count") == "1"
+    SCREENSHOTS.mkdir(parents=True, exist_ok=True)
+    page.screenshot(path=str(SCREENSHOTS / "hostile.png"), full_page=True)
+    print(f"screenshot of the hostile report: {SCREENSHOTS / 'hostile.png'}")
     page.close()
