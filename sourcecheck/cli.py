@@ -19,6 +19,8 @@ from pathlib import Path
 EXIT_OK = 0
 EXIT_INTERNAL = 1
 EXIT_INPUT = 2
+#: Report formats of ``--format``: the terminal, the JSON contract, and the reports people share.
+FORMATS = ("text", "json", "html", "markdown", "sarif")
 
 
 def build_parser() -> argparse.ArgumentParser:
@@ -37,7 +39,7 @@ def build_parser() -> argparse.ArgumentParser:
         metavar="DIR",
         help="folder of source PDFs (searched recursively)",
     )
-    check.add_argument("--format", choices=("text", "json"), default="text", help="report format (default: text)")
+    check.add_argument("--format", choices=FORMATS, default="text", help="report format (default: text)")
     check.add_argument(
         "--output",
         type=Path,
@@ -79,7 +81,7 @@ def _run_check(args: argparse.Namespace) -> int:
     from rich.console import Console
 
     from sourcecheck.api import check
-    from sourcecheck.reports import dumps, progress_bar, render
+    from sourcecheck.reports import dumps, html, markdown, progress_bar, render, sarif
 
     errors = Console(stderr=True)
     show_progress = not args.quiet and errors.is_terminal
@@ -96,8 +98,9 @@ def _run_check(args: argparse.Namespace) -> int:
         )
     for problem in report.problems:
         print(f"sourcecheck: {problem.file}: {problem.message}", file=sys.stderr)  # one line, never wrapped
-    if args.format == "json":
-        text = dumps(report)
+    writers = {"json": dumps, "html": html, "markdown": markdown, "sarif": sarif}
+    if args.format in writers:
+        text = writers[args.format](report)
     else:
         if not args.output:
             render(report, Console())

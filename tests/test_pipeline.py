@@ -30,6 +30,7 @@ def planted_rows() -> list[dict[str, str]]:
             rows.append(
                 {
                     "snippet": cells[1].strip("`"),
+                    "line": cells[2],
                     "citation": cells[3],
                     "band": cells[4],
                     "reason": cells[5],

@@ -11,8 +11,9 @@ from rich.markup import escape
 from rich.padding import Padding
 from rich.text import Text
 
-from sourcecheck.model import Band, Check, ClaimResult, Evidence, Report
+from sourcecheck.model import Band, Check, ClaimResult, Report
 from sourcecheck.reports.caution import CAUTION
+from sourcecheck.reports.wording import where
 from sourcecheck.text import trim
 
 BAND_STYLE = {
@@ -23,16 +24,6 @@ BAND_STYLE = {
     Band.UNVERIFIABLE: "bold blue",
 }
 PASSAGE_WORDS = 45
-
-
-def _page(evidence: Evidence) -> str:
-    """ "p. 2", "p. 2 (printed 306)" when the page prints another number, and ", results"
-    when the section is known, so the reader knows where on the page to look."""
-    printed = evidence.printed_page
-    where = f"p. {evidence.page}"
-    if printed is not None and printed != str(evidence.page):
-        where += f" (printed {printed})"
-    return f"{where}, {evidence.section}" if evidence.section else where
 
 
 def _check_block(check: Check) -> Group:
@@ -47,7 +38,7 @@ def _check_block(check: Check) -> Group:
         best = check.evidence[0]
         lines.append(
             Padding(
-                Text(f"{_page(best)}: \u201c{trim(best.text, PASSAGE_WORDS)}\u201d", style="italic"),
+                Text(f"{where(best)}: \u201c{trim(best.text, PASSAGE_WORDS)}\u201d", style="italic"),
                 (0, 0, 0, 2),
             )
         )
