@@ -10,6 +10,19 @@ from __future__ import annotations
 from sourcecheck.reports.caution import CAUTION
 from sourcecheck.reports.json_report import SCHEMA, dumps, to_dict
 from sourcecheck.reports.progress import progress_bar
-from sourcecheck.reports.terminal import render, summary_line
+from sourcecheck.reports.summary import render_summary, summary_rows
+from sourcecheck.reports.terminal import LEGEND, plural, render, summary_line
 
-__all__ = ["CAUTION", "SCHEMA", "dumps", "progress_bar", "render", "summary_line", "to_dict"]
+__all__ = [
+    "CAUTION",
+    "LEGEND",
+    "SCHEMA",
+    "dumps",
+    "plural",
+    "progress_bar",
+    "render",
+    "render_summary",
+    "summary_line",
+    "summary_rows",
+    "to_dict",
+]
