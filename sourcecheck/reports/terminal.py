@@ -158,5 +158,5 @@ def render(report: Report, console: Console, show_all: bool = False) -> None:
         for problem in report.problems:
             emit(console, Text(f"{visible(problem.file)}: {visible(problem.message)}"), indent=2, hang=4)
     console.print()
-    emit(console, Text(summary_line(report), style="bold"))
-    emit(console, Text(CAUTION, style="dim"))
+    emit(console, Text(summary_line(report), style="bold"), hang=0)
+    emit(console, Text(CAUTION, style="dim"), hang=0)
