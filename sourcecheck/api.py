@@ -46,9 +46,13 @@ def check(
         progress: called as ``progress(stage, done, total)`` while sources are read and embedded.
         stats: counters of what the run cost, filled in as it goes.
 
+    Checks a person accepted (the review file beside the draft, or an ignore comment in
+    it) come back with ``Check.reviewed`` set; an accepted check whose fingerprint no
+    longer holds is a ``Problem`` naming the review file.
+
     Raises:
-        SourcecheckError: the draft, the sources folder, the mapping or the model cannot be
-            opened. Anything wrong inside a file is a ``Problem`` in ``Report.problems``.
+        SourcecheckError: the draft, the sources folder, the mapping, the review file or the
+            model cannot be opened. Anything wrong inside a file is a ``Problem`` in ``Report.problems``.
     """
     return check_many(
         [draft],
