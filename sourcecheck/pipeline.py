@@ -232,8 +232,6 @@ def prepare(
     """Read the draft and the sources, build the index, match references, embed claims."""
     stats = stats if stats is not None else RunStats()
     resolve_model_path(model)  # a missing model stops the run before any file is read
-    if mapping is not None:
-        load_mapping(mapping)
     draft = read_draft(draft_path, display=str(draft_path), options=read_options)
     shared = prepare_sources(
         sources_dir, mapping=mapping, model=model, cache_dir=cache_dir, progress=progress, stats=stats
