@@ -15,7 +15,7 @@ the cited passage, and the author's and the editor's judgment decides.
 
 from __future__ import annotations
 
-from sourcecheck.api import Progress, check
+from sourcecheck.api import Progress, check, check_many
 from sourcecheck.errors import SourcecheckError
 from sourcecheck.model import (
     Band,
@@ -51,4 +51,5 @@ __all__ = [
     "SourcecheckError",
     "__version__",
     "check",
+    "check_many",
 ]

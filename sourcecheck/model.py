@@ -71,6 +71,12 @@ class Claim:
     line: int
     citations: tuple[Citation, ...]
     file: str | None = None  # the file the sentence is in, when not the draft itself (LaTeX \input)
+    #: What ``line`` counts: "line" for text formats, "paragraph" for Word, whose reader
+    #: numbers paragraphs because a .docx has no lines a person could find.
+    unit: str = "line"
+    #: The author marked the sentence with an ignore comment in the draft's own comment
+    #: syntax (``<!-- sourcecheck: ignore -->``, ``% sourcecheck: ignore``).
+    ignored: bool = False
 
 
 @dataclass
@@ -186,6 +192,11 @@ class Band(StrEnum):
     UNVERIFIABLE = "unverifiable"
 
 
+#: The bands from least to most severe, as ``--fail-on`` and the batch summary order them
+#: (a design choice, no source; reasons in sourcecheck/workflow/gate.py).
+BAND_SEVERITY: tuple[Band, ...] = (Band.ANCHORED, Band.LOOSE, Band.UNVERIFIABLE, Band.ADRIFT, Band.CONFLICT)
+
+
 @dataclass(frozen=True)
 class Reason:
     """A machine-readable code with the sentence a person reads."""
@@ -206,6 +217,21 @@ class Evidence:
     section: str = ""  # the role of the section it stands in (SECTION_ROLES), "" when unknown
 
 
+@dataclass(frozen=True)
+class Review:
+    """A person's word that one check was read and accepted, so gates and reports pass over it.
+
+    ``origin`` is "review-file" (accepted with ``sourcecheck review accept``, kept in the
+    file beside the draft while ``fingerprint`` still holds) or "ignore-comment" (marked in
+    the draft itself). The tool still shows the check; it only stops counting it.
+    """
+
+    note: str
+    origin: str
+    fingerprint: str = ""
+    accepted_on: str = ""
+
+
 @dataclass
 class Check:
     """One claim checked against one cited work."""
@@ -217,6 +243,7 @@ class Check:
     score: float
     reasons: list[Reason] = field(default_factory=list)
     evidence: list[Evidence] = field(default_factory=list)
+    reviewed: Review | None = None
 
 
 @dataclass

@@ -150,6 +150,74 @@ class Prepared:
     cache: Cache
 
 
+@dataclass
+class PreparedSources:
+    """The sources folder read, embedded and indexed once: what every draft of a run shares.
+
+    Split from :func:`prepare` so several manuscripts are checked against one folder with
+    one index and one cache, reading and embedding each PDF once (:func:`run_many`).
+    """
+
+    folder: Path
+    sources: list[Source]
+    index: EvidenceIndex
+    encoder: Encoder
+    cache: Cache
+    mapping: dict[str, str] | None
+    problems: list[Problem]
+
+
+def prepare_sources(
+    sources_dir: Path,
+    *,
+    mapping: Path | None = None,
+    model: str | None = None,
+    cache_dir: Path | None = None,
+    progress: ProgressHook = _noop,
+    stats: RunStats | None = None,
+) -> PreparedSources:
+    """Read every PDF under ``sources_dir`` (from the cache where known), embed and index the passages."""
+    stats = stats if stats is not None else RunStats()
+    model_path = resolve_model_path(model)
+    mapping_table = load_mapping(mapping) if mapping is not None else None
+    cache = Cache(cache_dir if cache_dir is not None else default_cache_dir())
+    encoder = Encoder(model_path)
+    sources, source_problems = read_sources(sources_dir, cache, progress, stats)
+    vectors = embed_sources(sources, encoder, cache, progress, stats)
+    passages: list[Passage] = [p for s in sources for p in s.passages]
+    return PreparedSources(
+        folder=sources_dir,
+        sources=sources,
+        index=EvidenceIndex(passages, vectors),
+        encoder=encoder,
+        cache=cache,
+        mapping=mapping_table,
+        problems=source_problems,
+    )
+
+
+def prepare_draft(draft: Draft, shared: PreparedSources, stats: RunStats | None = None) -> Prepared:
+    """Match one draft's references to the prepared sources and embed its claims."""
+    stats = stats if stats is not None else RunStats()
+    matches, match_problems = match_references(
+        draft.references, shared.sources, shared.mapping, sources_root=str(shared.folder)
+    )
+    queries = [claim_query(c) for c in draft.claims]
+    claim_vectors = embed_claims(queries, shared.encoder, shared.cache, stats)
+    stats.model_loaded = shared.encoder.loaded
+    return Prepared(
+        draft=draft,
+        sources=shared.sources,
+        index=shared.index,
+        matches=matches,
+        queries=queries,
+        claim_vectors=claim_vectors,
+        encoder=shared.encoder,
+        problems=[*draft.problems, *shared.problems, *match_problems],
+        cache=shared.cache,
+    )
+
+
 def prepare(
     draft_path: Path,
     sources_dir: Path,
@@ -163,31 +231,12 @@ def prepare(
 ) -> Prepared:
     """Read the draft and the sources, build the index, match references, embed claims."""
     stats = stats if stats is not None else RunStats()
-    model_path = resolve_model_path(model)
-    mapping_table = load_mapping(mapping) if mapping is not None else None
+    resolve_model_path(model)  # a missing model stops the run before any file is read
     draft = read_draft(draft_path, display=str(draft_path), options=read_options)
-    cache = Cache(cache_dir if cache_dir is not None else default_cache_dir())
-    encoder = Encoder(model_path)
-
-    sources, source_problems = read_sources(sources_dir, cache, progress, stats)
-    vectors = embed_sources(sources, encoder, cache, progress, stats)
-    passages: list[Passage] = [p for s in sources for p in s.passages]
-    index = EvidenceIndex(passages, vectors)
-    matches, match_problems = match_references(draft.references, sources, mapping_table, sources_root=str(sources_dir))
-    queries = [claim_query(c) for c in draft.claims]
-    claim_vectors = embed_claims(queries, encoder, cache, stats)
-    stats.model_loaded = encoder.loaded
-    return Prepared(
-        draft=draft,
-        sources=sources,
-        index=index,
-        matches=matches,
-        queries=queries,
-        claim_vectors=claim_vectors,
-        encoder=encoder,
-        problems=[*draft.problems, *source_problems, *match_problems],
-        cache=cache,
+    shared = prepare_sources(
+        sources_dir, mapping=mapping, model=model, cache_dir=cache_dir, progress=progress, stats=stats
     )
+    return prepare_draft(draft, shared, stats)
 
 
 class RunOptions(TypedDict, total=False):
@@ -204,6 +253,30 @@ class RunOptions(TypedDict, total=False):
 def run(draft_path: Path, sources_dir: Path, **options: Unpack[RunOptions]) -> Report:
     """Check every cited claim of ``draft_path`` against the PDFs under ``sources_dir``."""
     return judge_all(prepare(draft_path, sources_dir, **options), draft_path, sources_dir)
+
+
+def run_many(draft_paths: list[Path], sources_dir: Path, **options: Unpack[RunOptions]) -> list[Report]:
+    """Check several drafts against one sources folder: the PDFs are read, embedded and indexed once.
+
+    Every draft is read first, so a missing one stops the run before any PDF is read.
+    """
+    stats = options.get("stats")
+    stats = stats if stats is not None else RunStats()
+    read_options = options.get("read_options")
+    resolve_model_path(options.get("model"))
+    drafts = [read_draft(path, display=str(path), options=read_options) for path in draft_paths]
+    shared = prepare_sources(
+        sources_dir,
+        mapping=options.get("mapping"),
+        model=options.get("model"),
+        cache_dir=options.get("cache_dir"),
+        progress=options.get("progress", _noop),
+        stats=stats,
+    )
+    return [
+        judge_all(prepare_draft(draft, shared, stats), path, sources_dir)
+        for draft, path in zip(drafts, draft_paths, strict=True)
+    ]
 
 
 def make_search(index: EvidenceIndex, calibration: Calibration) -> Search:

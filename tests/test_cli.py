@@ -11,6 +11,8 @@ import pytest
 
 from sourcecheck.cli import EXIT_INPUT, EXIT_OK, main
 from sourcecheck.reports import CAUTION
+from tests import cli_run
+from tests.cli_run import run_cli
 from tests.pdf_fixtures import encrypted_pdf, image_only_pdf, write_not_a_pdf, write_truncated_pdf
 from tests.test_pipeline import planted_rows
 
@@ -20,18 +22,8 @@ BANDS = ("anchored", "loose", "conflict", "adrift", "unverifiable")
 SOURCES = ROOT / "sample_sources"
 
 
-@pytest.fixture(scope="module")
-def cache(tmp_path_factory: pytest.TempPathFactory) -> Path:
-    """A cache warmed once on the demo, so each CLI test below runs without the model."""
-    folder = tmp_path_factory.mktemp("cli-cache")
-    assert main(["check", str(DRAFT), "--sources", str(SOURCES), "--cache", str(folder), "--quiet"]) == EXIT_OK
-    return folder
-
-
-def _run(capsys: pytest.CaptureFixture[str], *args: str) -> tuple[int, str, str]:
-    code = main(list(args))
-    out, err = capsys.readouterr()
-    return code, out, err
+cache = cli_run.cache  # a cache warmed once on the demo, so each CLI test below runs without the model
+_run = run_cli
 
 
 def test_json_report_to_stdout_follows_the_contract(cache: Path, capsys: pytest.CaptureFixture[str]) -> None:

@@ -15,18 +15,23 @@ from sourcecheck.reports.json_report import SCHEMA, dumps, to_dict
 from sourcecheck.reports.markdown_report import markdown
 from sourcecheck.reports.progress import progress_bar
 from sourcecheck.reports.sarif_report import sarif, to_sarif
-from sourcecheck.reports.terminal import render, summary_line
+from sourcecheck.reports.summary import render_summary, summary_rows
+from sourcecheck.reports.terminal import LEGEND, plural, render, summary_line
 
 __all__ = [
     "CAUTION",
+    "LEGEND",
     "SCHEMA",
     "dumps",
     "html",
     "markdown",
+    "plural",
     "progress_bar",
     "render",
+    "render_summary",
     "sarif",
     "summary_line",
+    "summary_rows",
     "to_dict",
     "to_sarif",
 ]

@@ -8,7 +8,7 @@ from __future__ import annotations
 import json
 from typing import Any
 
-from sourcecheck.model import Check, Evidence, Reference, Report
+from sourcecheck.model import Check, Evidence, Reference, Report, Review
 from sourcecheck.reports.caution import CAUTION
 
 SCHEMA = "sourcecheck.report/1"
@@ -36,7 +36,18 @@ def _check(check: Check) -> dict[str, Any]:
         "score": check.score,
         "reasons": [{"code": r.code, "message": r.message} for r in check.reasons],
         "evidence": [_evidence(e) for e in check.evidence],
+        "reviewed": _review(check.reviewed) if check.reviewed else None,
     }
+
+
+def _review(review: Review) -> dict[str, Any]:
+    """A person's acceptance: the note, where it came from, and (review file) fingerprint and date."""
+    item: dict[str, Any] = {"note": review.note, "origin": review.origin}
+    if review.fingerprint:
+        item["fingerprint"] = review.fingerprint
+    if review.accepted_on:
+        item["accepted_on"] = review.accepted_on
+    return item
 
 
 def _evidence(evidence: Evidence) -> dict[str, Any]:
@@ -70,7 +81,11 @@ def to_dict(report: Report) -> dict[str, Any]:
             {
                 "id": result.claim.id,
                 "text": result.claim.text,
-                "location": {"line": result.claim.line, **({"file": result.claim.file} if result.claim.file else {})},
+                "location": {
+                    "line": result.claim.line,
+                    "unit": result.claim.unit,
+                    **({"file": result.claim.file} if result.claim.file else {}),
+                },
                 "checks": [_check(c) for c in result.checks],
             }
             for result in report.claims

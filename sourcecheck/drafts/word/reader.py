@@ -27,6 +27,7 @@ from __future__ import annotations
 
 import re
 from collections.abc import Iterator, Sequence
+from dataclasses import replace
 from pathlib import Path
 from typing import TYPE_CHECKING
 
@@ -103,7 +104,8 @@ def _read_package(package: WordPackage, display: str) -> Draft:
         for position, p in enumerate([*body, *notes])
         if p.text.strip() and p.heading is None and position not in skip
     ]
-    claims = extract_claims(blocks, Resolver(references))
+    # Word has no lines: the numbers are paragraphs, and the reports must say so.
+    claims = [replace(c, unit="paragraph") for c in extract_claims(blocks, Resolver(references))]
     if not claims:
         problems.append(Problem(display, "no citation markers found in the text"))
     return Draft(display, claims, references, problems)
