@@ -19,7 +19,7 @@ from sourcecheck.sources._match import match_references
 from sourcecheck.sources._reader import read_source
 
 #: Bump on any change to extraction, cleaning or passage cutting.
-EXTRACTOR_VERSION = "sources-7"
+EXTRACTOR_VERSION = "sources-8"
 
 __all__ = [
     "EXTRACTOR_VERSION",
