@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import re
 from collections.abc import Callable
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from pathlib import Path
 from typing import TypedDict, Unpack
 
@@ -39,6 +39,7 @@ from sourcecheck.model import (
     ClaimResult,
     Draft,
     Hit,
+    MatchRefusal,
     ModelInfo,
     Passage,
     Problem,
@@ -53,7 +54,7 @@ from sourcecheck.sources import (
     discover_pdfs,
     file_sha256,
     load_mapping,
-    match_references,
+    match_sources,
     read_source,
 )
 
@@ -276,6 +277,8 @@ class Prepared:
     encoder: Encoder
     problems: list[Problem]
     cache: Cache
+    #: Why each unmatched reference has no source: its closest file and what kept it out.
+    refusals: dict[str, MatchRefusal] = field(default_factory=dict)
 
 
 def prepare(
@@ -301,7 +304,9 @@ def prepare(
     vectors = embed_sources(sources, encoder, cache, progress, stats)
     passages: list[Passage] = [p for s in sources for p in s.passages]
     index = EvidenceIndex(passages, vectors)
-    matches, match_problems = match_references(draft.references, sources, mapping_table, sources_root=str(sources_dir))
+    matched = match_sources(draft.references, sources, mapping_table, sources_root=str(sources_dir), draft=draft.path)
+    cited = {c.key for claim in draft.claims for c in claim.citations if c.key}
+    match_problems = [*matched.problems, *(p for key, p in matched.unmatched.items() if key in cited)]
     queries = [claim_query(c) for c in draft.claims]
     claim_vectors = embed_claims(queries, encoder, cache, stats)
     stats.model_loaded = encoder.loaded
@@ -309,7 +314,8 @@ def prepare(
         draft=draft,
         sources=sources,
         index=index,
-        matches=matches,
+        matches=matched.matches,
+        refusals=matched.refusals,
         queries=queries,
         claim_vectors=claim_vectors,
         encoder=encoder,
@@ -362,5 +368,6 @@ def judge_all(prepared: Prepared, draft_path: Path, sources_dir: Path) -> Report
         references=draft.references,
         matches=prepared.matches,
         unused_sources=unused_sources(prepared.sources, draft, prepared.matches),
+        refusals=prepared.refusals,
         problems=[*prepared.problems, *cache_problems],
     )

@@ -102,6 +102,17 @@ def _words_found(title: str, span: str) -> bool:
     return misses <= len(words) // 10
 
 
+def parse_agrees(parsed: str, title: str) -> bool:
+    """Whether a parsed title is this (short) title, give or take one word the parse ran on into.
+
+    A short title can stand inside a longer one; when the parser did read a title, it must
+    not be a longer title that merely contains this one.
+    """
+    wanted = set(_content(fold(title).split()))
+    extra = [w for w in _content(fold(parsed).split()) if w not in wanted]
+    return len(extra) <= 1
+
+
 def _spaced_well(title: str) -> bool:
     words = title.split()
     return bool(words) and sum(len(w) for w in words) / len(words) <= 12

@@ -41,6 +41,7 @@ from sourcecheck.sources._evidence import (
     entry_dois,
     fold,
     main_title,
+    parse_agrees,
     printed_author_points,
     printed_titles,
 )
@@ -235,8 +236,11 @@ def pair_evidence(reference: Reference, source: Source, page_dois: set[str]) -> 
         kinds.append((TITLE_POINTS * parsed, MatchMethod.TITLE, parsed, f"title alike ({parsed:.2f})"))
     found, close, title = best_title_in_entry(source, reference.text)
     closeness = max(closeness, close)
+    short = len(title.split()) < SHORT_TITLE_WORDS
+    if found and short and reference.title and not parse_agrees(reference.title, title):
+        found = 0.0  # "Sleep and memory" inside "Sleep and memory consolidation in older adults"
     if found:
-        weight = TITLE_POINTS if len(title.split()) >= SHORT_TITLE_WORDS else SHORT_TITLE_POINTS
+        weight = SHORT_TITLE_POINTS if short else TITLE_POINTS
         text = f"its title found in the entry ({found:.2f})"
         kinds.append((weight * found, MatchMethod.TITLE_IN_ENTRY, found, text))
     share = author_year_similarity(reference, source)
@@ -258,14 +262,15 @@ def pair_evidence(reference: Reference, source: Source, page_dois: set[str]) -> 
 class MatchOutcome:
     """What matching found: the matches, why the others have none, and problems to show.
 
-    ``problems`` are the --map file's and an empty sources folder's; ``unmatched`` holds
-    one line per entry left without a file, naming its closest file and why.
+    ``problems`` are the --map file's and an empty sources folder's; ``unmatched`` holds,
+    by reference key, one line per entry left without a file, naming its closest file and why
+    (the caller shows those of cited entries).
     """
 
     matches: dict[str, SourceMatch] = field(default_factory=dict)
     refusals: dict[str, MatchRefusal] = field(default_factory=dict)
     problems: list[Problem] = field(default_factory=list)
-    unmatched: list[Problem] = field(default_factory=list)
+    unmatched: dict[str, Problem] = field(default_factory=dict)
 
 
 def match_sources(
@@ -311,7 +316,7 @@ def match_sources(
         refusal = _refusal(ref, row, evidence[row], free, refs, taken, tied.get(row))
         outcome.refusals[ref.key] = refusal
         where = draft or sources_root or "."
-        outcome.unmatched.append(Problem(where, f"reference '{ref.key}' matched no source file: {refusal.reason}"))
+        outcome.unmatched[ref.key] = Problem(where, f"reference '{ref.key}' matched no source file: {refusal.reason}")
     order = {r.key: i for i, r in enumerate(references)}
     outcome.matches = dict(sorted(outcome.matches.items(), key=lambda kv: order.get(kv[0], len(order))))
     return outcome
@@ -346,7 +351,10 @@ def _refusal(
         best = evidence[col]
         if best.closeness <= 0:
             return MatchRefusal(ref.key, None, "no source file shares its DOI, title, or first author and year")
-        why = f"closest is {sources[col].path}, whose title is only {best.closeness:.0%} alike"
+        why = (
+            "no file shares its DOI, its title, or its first author with the year; "
+            f"the closest title is that of {sources[col].path}, only {best.closeness:.0%} alike"
+        )
         return MatchRefusal(ref.key, sources[col].path, why)
     path = sources[col].path
     if col in taken:
