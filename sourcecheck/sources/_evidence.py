@@ -18,6 +18,7 @@ import re
 import unicodedata
 from dataclasses import dataclass
 from functools import lru_cache
+from itertools import pairwise
 
 from rapidfuzz import fuzz
 from rapidfuzz.fuzz import partial_ratio_alignment
@@ -98,7 +99,13 @@ def _words_found(title: str, span: str) -> bool:
     words, others = _content(title.split()), span.split()
     if not words or not others:
         return False
-    misses = sum(1 for w in words if max(fuzz.ratio(w, o) for o in others) < WORD_FLOOR)
+    # Hyphens mended differently split or join words ("grass-land", "grassland").
+    others += [a + b for a, b in pairwise(others)]
+
+    def found(word: str) -> bool:
+        return any(fuzz.ratio(word, o) >= WORD_FLOOR or (len(word) >= 4 and word in o) for o in others)
+
+    misses = sum(1 for w in words if not found(w))
     return misses <= len(words) // 10
 
 

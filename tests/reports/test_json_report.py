@@ -3,6 +3,7 @@
 import json
 from dataclasses import replace
 
+from sourcecheck.model import MatchRefusal
 from sourcecheck.reports.caution import CAUTION
 from sourcecheck.reports.json_report import SCHEMA, dumps
 from tests.reports.sample_report import sample_report
@@ -63,3 +64,17 @@ def test_evidence_names_its_section_only_when_known() -> None:
     assert "section" not in json.loads(dumps(report))["claims"][0]["checks"][0]["evidence"][0]
     check.evidence = [replace(e, section="results") for e in check.evidence]
     assert json.loads(dumps(report))["claims"][0]["checks"][0]["evidence"][0]["section"] == "results"
+
+
+def test_references_carry_match_confidence_or_the_refusal() -> None:
+    report = sample_report()
+    report.matches["1"] = replace(report.matches["1"], confidence=0.996, detail="DOI in the file's metadata")
+    report.refusals["2"] = MatchRefusal(
+        "2", "src/orphan.pdf", "closest is src/orphan.pdf, but the evidence is too weak"
+    )
+    refs = {r["key"]: r for r in json.loads(dumps(report))["references"]}
+    assert (refs["1"]["confidence"], refs["1"]["match_detail"]) == (0.996, "DOI in the file's metadata")
+    assert "closest_source" not in refs["1"]
+    assert refs["2"]["closest_source"] == "src/orphan.pdf"
+    assert refs["2"]["refused_because"].startswith("closest is src/orphan.pdf")
+    assert "confidence" not in refs["2"] and "closest_source" not in refs["3"]
