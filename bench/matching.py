@@ -28,6 +28,8 @@ from pathlib import Path
 REPO = Path(__file__).resolve().parents[1]
 sys.path.insert(0, str(REPO))
 
+from tests.real_references import STYLES  # noqa: E402  (the repository root is on the path now)
+
 
 def _git(*args: str) -> str:
     return subprocess.run(["git", *args], cwd=REPO, check=True, capture_output=True, text=True).stdout.strip()
@@ -93,18 +95,23 @@ def measure(papers_dir: Path) -> dict[str, dict[str, tuple[int, int, int]]]:
 
 
 def _table(before: dict, after: dict) -> str:
+    held_out = {s.name for s in STYLES if s.held_out}
     lines = ["| style | format | before: right / wrong | after: right / wrong |", "| --- | --- | --- | --- |"]
-    totals = {"before": [0, 0, 0], "after": [0, 0, 0]}
+    totals = {(part, when): [0, 0, 0] for part in ("development", "held out") for when in ("before", "after")}
     for style, formats in after.items():
+        part = "held out" if style in held_out else "development"
         for fmt, now in formats.items():
             then = before[style][fmt]
-            for name, value in (("before", then), ("after", now)):
-                totals[name] = [a + b for a, b in zip(totals[name], value, strict=True)]
-            lines.append(f"| {style} | {fmt} | {then[0]}/{then[2]} / {then[1]} | {now[0]}/{now[2]} / {now[1]} |")
-    b, a = totals["before"], totals["after"]
-    lines.append(
-        f"| all | all | {b[0]}/{b[2]} ({b[0] / b[2]:.1%}) / {b[1]} | {a[0]}/{a[2]} ({a[0] / a[2]:.1%}) / {a[1]} |"
-    )
+            for when, value in (("before", then), ("after", now)):
+                totals[part, when] = [a + b for a, b in zip(totals[part, when], value, strict=True)]
+            name = f"{style} (held out)" if part == "held out" else style
+            lines.append(f"| {name} | {fmt} | {then[0]}/{then[2]} / {then[1]} | {now[0]}/{now[2]} / {now[1]} |")
+    for part in ("development", "held out"):
+        cells = []
+        for when in ("before", "after"):
+            right, wrong, all_ = totals[part, when]
+            cells.append(f"{right}/{all_} ({right / max(all_, 1):.1%}) / {wrong}")
+        lines.append(f"| all {part} styles | all | {cells[0]} | {cells[1]} |")
     return "\n".join(lines)
 
 

@@ -27,6 +27,8 @@ class Style:
     numbered: bool
     label: str  # how a numbered entry is labelled: "{n}." or "[{n}]"
     guide: str
+    #: Written after the matcher was frozen and measured once: the honest figure.
+    held_out: bool = False
 
 
 STYLES: tuple[Style, ...] = (
@@ -38,6 +40,9 @@ STYLES: tuple[Style, ...] = (
     Style("nature", True, "{n}.", "Nature research journals' reference format (from memory)"),
     Style("cs_author_title_venue", False, "", "the dblp / CS-proceedings form 'First Last. Title. Venue, Year.'"),
     Style("title_only", True, "{n}.", "a bare list of titles (no guide: the worst case for a parser)"),
+    Style("mla9", False, "", "MLA Handbook, 9th ed. (from memory)", held_out=True),
+    Style("ama11", True, "{n}.", "AMA Manual of Style, 11th ed. (from memory)", held_out=True),
+    Style("harvard", False, "", "Harvard as in Cite Them Right, 12th ed. (from memory)", held_out=True),
 )
 
 

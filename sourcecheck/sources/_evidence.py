@@ -39,9 +39,10 @@ YEAR_POINTS = 0.5  # ... and a year of the entry is printed on the source's firs
 DOI_CONFLICT_POINTS = -3.0
 #: Fewer content words than this make a title "short": common words can meet by chance.
 SHORT_TITLE_WORDS = 5
-#: Least ``partial_ratio`` (0-100) of a title inside the entry, by the title's folded length:
-#: the shorter the title, the fewer slips it may have (set by hand; common practice, no source).
-IN_ENTRY_FLOORS = ((60, 90.0), (30, 94.0), (15, 97.0), (0, 101.0))
+#: Least ``partial_ratio`` (0-100) of a title of SHORT_TITLE_WORDS or more words inside the
+#: entry, by the title's folded length: the shorter, the fewer slips it may have (set by hand;
+#: common practice, no source). Shorter titles must stand exactly (:func:`_bounded_phrase`).
+IN_ENTRY_FLOORS = ((60, 90.0), (30, 94.0), (0, 97.0))
 #: A word of a title found in the entry needs a counterpart this close (``fuzz.ratio``).
 WORD_FLOOR = 80
 #: How much of the entry's start may hold the first author (characters).
@@ -109,20 +110,37 @@ def _words_found(title: str, span: str) -> bool:
     return misses <= len(words) // 10
 
 
-def parse_agrees(parsed: str, title: str) -> bool:
-    """Whether a parsed title is this (short) title, give or take one word the parse ran on into.
-
-    A short title can stand inside a longer one; when the parser did read a title, it must
-    not be a longer title that merely contains this one.
-    """
-    wanted = set(_content(fold(title).split()))
-    extra = [w for w in _content(fold(parsed).split()) if w not in wanted]
-    return len(extra) <= 1
-
-
 def _spaced_well(title: str) -> bool:
     words = title.split()
     return bool(words) and sum(len(w) for w in words) / len(words) <= 12
+
+
+def is_short(title: str) -> bool:
+    """Fewer than :data:`SHORT_TITLE_WORDS` words: such a title can stand inside another.
+
+    A title whose word spaces were lost in extraction is not short, however few its "words".
+    """
+    folded = fold(title)
+    return _spaced_well(folded) and len(folded.split()) < SHORT_TITLE_WORDS
+
+
+def _unaccented(text: str) -> str:
+    text = unicodedata.normalize("NFKD", text)
+    return "".join(ch for ch in text if not unicodedata.combining(ch)).lower()
+
+
+def _bounded_phrase(title: str, entry: str) -> bool:
+    """The title's words, in order and exactly, set off by punctuation or the entry's ends.
+
+    "Sleep and memory" stands alone in "Lin B. Sleep and memory. J Sleep." but not in
+    "Lin B. Sleep and memory consolidation in adults.": a short title is only trusted
+    where the entry's punctuation closes it, which needs no parse of the entry.
+    """
+    words = fold(title).split()
+    if len(words) < 2:
+        return False
+    body = r"[\W_]+".join(re.escape(w) for w in words)
+    return re.search(rf"(?:^|[^\w\s])\s*{body}\s*(?:$|[^\w\s])", _unaccented(entry)) is not None
 
 
 def title_in_entry(title: str, entry: str) -> tuple[float, float]:
@@ -130,6 +148,10 @@ def title_in_entry(title: str, entry: str) -> tuple[float, float]:
     folded_title, folded_entry = fold(title), fold(entry)
     if not folded_title or not folded_entry:
         return 0.0, 0.0
+    if is_short(title):
+        if _bounded_phrase(title, entry):
+            return 1.0, 1.0
+        return 0.0, fuzz.partial_ratio(folded_title, folded_entry) / 100
     if _spaced_well(folded_title):
         found = partial_ratio_alignment(folded_title, folded_entry)
         if found is None:

@@ -33,15 +33,14 @@ from sourcecheck.sources._evidence import (
     DOI_CONFLICT_POINTS,
     DOI_POINTS,
     SHORT_TITLE_POINTS,
-    SHORT_TITLE_WORDS,
     TITLE_POINTS,
     Evidence,
     best_title_in_entry,
     entry_arxiv_ids,
     entry_dois,
     fold,
+    is_short,
     main_title,
-    parse_agrees,
     printed_author_points,
     printed_titles,
 )
@@ -236,11 +235,8 @@ def pair_evidence(reference: Reference, source: Source, page_dois: set[str]) -> 
         kinds.append((TITLE_POINTS * parsed, MatchMethod.TITLE, parsed, f"title alike ({parsed:.2f})"))
     found, close, title = best_title_in_entry(source, reference.text)
     closeness = max(closeness, close)
-    short = len(title.split()) < SHORT_TITLE_WORDS
-    if found and short and reference.title and not parse_agrees(reference.title, title):
-        found = 0.0  # "Sleep and memory" inside "Sleep and memory consolidation in older adults"
     if found:
-        weight = SHORT_TITLE_POINTS if short else TITLE_POINTS
+        weight = SHORT_TITLE_POINTS if is_short(title) else TITLE_POINTS
         text = f"its title found in the entry ({found:.2f})"
         kinds.append((weight * found, MatchMethod.TITLE_IN_ENTRY, found, text))
     share = author_year_similarity(reference, source)

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import pytest
 
-from sourcecheck.sources._evidence import family_name, parse_agrees, squash, title_in_entry
+from sourcecheck.sources._evidence import family_name, squash, title_in_entry
 
 TITLE = "Grazing pressure and seed rain on coastal dune grassland"
 
@@ -51,9 +51,18 @@ def test_short_titles_need_the_exact_words() -> None:
     assert title_in_entry("Rhythmic attentional scanning", "Fries P. Rhythmic attention scans. Neuron.")[0] == 0.0
 
 
-def test_parse_agrees_allows_one_run_on_word_only() -> None:
-    assert parse_agrees("Rhythmic attentional scanning Neuron", "Rhythmic attentional scanning")
-    assert not parse_agrees("Sleep and memory consolidation in older adults", "Sleep and memory")
+@pytest.mark.parametrize(
+    ("entry", "found"),
+    [
+        ("Lin B. Sleep and memory. J Sleep. 2020.", True),
+        ("Lin, B. (2020). “Sleep and Memory,” J. Sleep.", True),
+        ("Sleep and memory", True),
+        ("Lin B. Sleep and memory consolidation in adults. J Sleep. 2020.", False),
+        ("Lin B. Effects of sleep and memory training. J Sleep. 2020.", False),
+    ],
+)
+def test_a_short_title_must_be_set_off_by_punctuation(entry: str, found: bool) -> None:
+    assert (title_in_entry("Sleep and memory", entry)[0] == 1.0) is found
 
 
 def test_squash_and_family_name() -> None:

@@ -188,7 +188,7 @@ def test_title_in_the_entry_refuses_one_changed_word() -> None:
     assert match_references([Reference(key="1", text=entry)], [_titled("a.pdf", LONG_TITLE)])[0] == {}
 
 
-def test_short_title_inside_a_longer_parsed_title_is_not_a_match() -> None:
+def test_short_title_inside_a_longer_title_is_not_a_match() -> None:
     entry = "Lin B. Sleep and memory consolidation in older adults. Sleep Res. 2020;3:1-9."
     ref = Reference(key="1", text=entry, title="Sleep and memory consolidation in older adults")
     outcome = match_sources([ref], [_titled("a.pdf", "Sleep and memory in students")])
