@@ -288,9 +288,11 @@ def match_sources(
     """
     mapped, problems = _map_tier(references, sources, mapping or {}, sources_root)
     outcome = MatchOutcome({m.key: m for m in mapped}, {}, problems)
-    if references and not sources:
+    if not sources:
         folder = sources_root or "."
         outcome.problems.append(Problem(folder, "the sources folder holds no readable PDF; no reference can match"))
+        why = "the sources folder holds no readable PDF"
+        outcome.refusals = {r.key: MatchRefusal(r.key, None, why) for r in references if r.key not in outcome.matches}
         return outcome
     used = {m.source for m in mapped}
     refs = [r for r in references if r.key not in outcome.matches]

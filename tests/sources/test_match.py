@@ -250,4 +250,7 @@ def test_unrelated_entry_names_the_closest_title_and_says_nothing_ties_it() -> N
 def test_empty_sources_folder_is_one_problem_line() -> None:
     outcome = match_sources([_ref("1", title=TITLE), _ref("2", title=LONG_TITLE)], [], sources_root="lib")
     assert outcome.problems == [Problem("lib", "the sources folder holds no readable PDF; no reference can match")]
-    assert outcome.matches == {} and outcome.unmatched == {}
+    assert outcome.matches == {} and outcome.unmatched == {}  # no line per reference on top
+    assert {k: (r.candidate, r.reason) for k, r in outcome.refusals.items()} == {
+        k: (None, "the sources folder holds no readable PDF") for k in ("1", "2")
+    }
