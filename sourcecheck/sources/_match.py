@@ -17,7 +17,6 @@ from __future__ import annotations
 
 import itertools
 import posixpath
-import re
 from collections.abc import Iterable
 from dataclasses import dataclass, field
 
@@ -161,7 +160,9 @@ def _doi_evidence(source: Source) -> set[str]:
 
 
 def _has_word(haystack: str, word: str) -> bool:
-    return bool(word) and re.search(rf"\b{re.escape(word)}\b", haystack) is not None
+    """Whether folded ``word`` stands as whole words in folded ``haystack`` (single spaces, no
+    punctuation after :func:`fold`, so a space is a word boundary; no regex per name)."""
+    return bool(word) and f" {word} " in f" {haystack} "
 
 
 def author_year_similarity(reference: Reference, source: Source) -> float:
