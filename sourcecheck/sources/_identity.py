@@ -189,9 +189,11 @@ def read_identity(data: bytes, raw: RawPdf, texts: list[str], metadata_title: st
             reader = PdfReader(BytesIO(data), strict=False)
             if reader.is_encrypted:
                 reader.decrypt("")
-            pages = [_runs(reader, i) for i in range(min(2, len(reader.pages)))]
+            # Page 2 is walked only behind a cover page: the layout pass costs about a page's extraction.
+            cover = bool(texts) and COVER_MARKERS.search(texts[0]) is not None
+            pages = [_runs(reader, i) for i in range(min(2 if cover else 1, len(reader.pages)))]
         found = [_title_block(runs) for runs in pages]
-        page = 2 if len(found) > 1 and found[1] and texts and COVER_MARKERS.search(texts[0]) else 1
+        page = 2 if len(found) > 1 and found[1] else 1
         if found and found[page - 1]:
             title, size, top = found[page - 1]
             authors = _authors_below(pages[page - 1], top, size)
