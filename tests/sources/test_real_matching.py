@@ -17,7 +17,7 @@ from sourcecheck.drafts import read_draft
 from sourcecheck.drafts.markdown import read_markdown
 from sourcecheck.model import Source
 from sourcecheck.sources import match_sources
-from tests.real_references import STYLES, Style, markdown_draft, papers, pdf_draft, word_draft
+from tests.real_references import STYLES, Style, entries, markdown_draft, papers, pdf_draft, word_draft
 
 
 def _markdown(style: Style, path: Path) -> Path:
@@ -56,3 +56,38 @@ def test_a_missing_pdf_leaves_its_reference_unmatched_not_misplaced(real_sources
     assert all(outcome.matches[r.key].source == f for r, f in zip(references, files, strict=True) if f != gone)
     assert list(outcome.unmatched) == [missing]
     assert outcome.unmatched[missing].message.startswith(f"reference '{missing}' matched no source file")
+
+
+def _drop_subtitle(entry: str, title: str) -> str:
+    head, _, tail = title.partition(": ")
+    return entry.replace(f"{head}: {tail}", head) if tail else entry
+
+
+def _typo(entry: str, title: str) -> str:
+    return entry.replace(title[:30], title[:9] + title[10:30])  # one letter of the title lost
+
+
+@pytest.mark.parametrize(
+    "damage",
+    [
+        _drop_subtitle,
+        _typo,
+        lambda entry, _: entry.upper(),
+        lambda entry, _: entry.split(". ", 1)[1],  # the author list cut off
+    ],
+    ids=["subtitle-dropped", "typo", "upper-case", "no-authors"],
+)
+def test_damaged_entries_still_find_their_pdf(
+    real_sources: dict[str, Source], damage: Callable[[str, str], str]
+) -> None:
+    # Vancouver entries (no DOI) with one kind of damage a hand-typed list shows.
+    vancouver = next(s for s in STYLES if s.name == "vancouver")
+    titles = entries(next(s for s in STYLES if s.name == "title_only"))
+    damaged = [damage(entry, title) for entry, title in zip(entries(vancouver), titles, strict=True)]
+    changed = sum(d != e for d, e in zip(damaged, entries(vancouver), strict=True))
+    assert changed >= (6 if damage is _drop_subtitle else 20)  # the damage did reach the entries
+    text = "# R\n\nText [1].\n\n## References\n\n" + "\n".join(f"{i}. {e}" for i, e in enumerate(damaged, 1))
+    references = read_markdown(text + "\n", "draft.md").references
+    outcome = match_sources(references, list(real_sources.values()))
+    got = [outcome.matches[r.key].source if r.key in outcome.matches else None for r in references]
+    assert got == [p.file for p in papers()]
