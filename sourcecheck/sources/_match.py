@@ -304,15 +304,16 @@ def match_sources(
     chosen, ties = assign(points, MATCH_FLOOR)
     for pair in chosen:
         ref, source, ev = refs[pair.row], free[pair.col], evidence[pair.row][pair.col]
-        assert ev.method is not None  # a pair over the floor has a leading kind of evidence
-        match = SourceMatch(ref.key, source.path, ev.method, round(ev.similarity, 4), ev.confidence, ev.detail)
+        method = ev.method or MatchMethod.AUTHOR_YEAR  # over the floor, some kind always leads
+        match = SourceMatch(ref.key, source.path, method, round(ev.similarity, 4), ev.confidence, ev.detail)
         outcome.matches[ref.key] = match
     taken = {pair.col: refs[pair.row].key for pair in chosen}
     tied = {t.row: t for t in ties}
+    tied_files = {t.col: t for t in ties}
     for row, ref in enumerate(refs):
         if ref.key in outcome.matches:
             continue
-        refusal = _refusal(ref, row, evidence[row], free, refs, taken, tied.get(row))
+        refusal = _refusal(ref, evidence[row], free, refs, taken, tied.get(row), tied_files)
         outcome.refusals[ref.key] = refusal
         where = draft or sources_root or "."
         outcome.unmatched[ref.key] = Problem(where, f"reference '{ref.key}' matched no source file: {refusal.reason}")
@@ -323,12 +324,12 @@ def match_sources(
 
 def _refusal(
     ref: Reference,
-    row: int,
     evidence: list[Evidence],
     sources: list[Source],
     refs: list[Reference],
     taken: dict[int, str],
     tie: Tie | None,
+    tied_files: dict[int, Tie],
 ) -> MatchRefusal:
     """The closest file for an unmatched entry and why it was not given."""
     if tie is not None:
@@ -356,7 +357,10 @@ def _refusal(
         )
         return MatchRefusal(ref.key, sources[col].path, why)
     path = sources[col].path
-    if col in taken:
+    if col in tied_files and refs[tied_files[col].row].key != ref.key:
+        rival = refs[tied_files[col].row].key
+        why = f"{path} fits it and reference '{rival}' about equally ({best.detail}); say which in --map"
+    elif col in taken:
         why = f"closest is {path}, but it went to reference '{taken[col]}', which fits it better ({best.detail} here)"
     else:
         why = f"closest is {path}, but the evidence is too weak ({best.detail})"

@@ -231,6 +231,15 @@ def test_two_files_with_one_title_are_reported_not_guessed() -> None:
     assert "about equally" in outcome.refusals["1"].reason
 
 
+def test_two_entries_for_one_file_both_say_so() -> None:
+    # The same work entered twice in the list: neither copy is guessed, each names the other.
+    entries = [Reference(key=k, text=f"Okafor A. {LONG_TITLE}. J Coasts. 2021.") for k in ("1", "2")]
+    outcome = match_sources(entries, [_titled("a.pdf", LONG_TITLE)])
+    assert outcome.matches == {}
+    reasons = {k: r.reason for k, r in outcome.refusals.items()}
+    assert "reference '2' about equally" in reasons["1"] and "reference '1' about equally" in reasons["2"]
+
+
 def test_refusal_names_the_entry_that_took_the_closest_file() -> None:
     source = _titled("a.pdf", LONG_TITLE, dois=("10.5555/dune.7",))
     winner = Reference(key="1", text=f"{LONG_TITLE}. doi:10.5555/dune.7", title=LONG_TITLE)
