@@ -56,6 +56,8 @@ LINE_GAP = 2.0
 PLAUSIBLE_METADATA = 85
 #: How many printed authors to keep: matching looks at the first few only.
 MAX_AUTHORS = 6
+#: Characters at the head and at the foot of a page where running lines stand.
+RUNNING_ZONE = 250
 #: Pages searched for identifiers.
 ID_PAGES = 2
 
@@ -127,16 +129,27 @@ def _body_size(runs: list[Run]) -> float:
     return max(weight, key=lambda s: weight[s]) if weight else 0.0
 
 
-def _title_block(runs: list[Run]) -> tuple[str, float, float] | None:
-    """The page's title, its type size and its top y: the largest type that reads like a title."""
+def _title_block(runs: list[Run], later: list[str]) -> tuple[str, float, float] | None:
+    """The page's title, its type size and its top y: the largest type that reads like a title.
+
+    ``later`` are the texts of the pages after it: a large line that comes back at the head
+    or foot of most of them is the journal's name in a running line, not the title.
+    """
     body = _body_size(runs)
     for size, top, text in _blocks(runs):
         if size < body * TITLE_SIZE_RATIO:
             return None
         text = _NOTE.sub(" ", text).strip()  # "[v2; ref status: indexed, http://...]"
-        if len(text.split()) >= MIN_TITLE_WORDS and not _FURNITURE.search(text):
+        if len(text.split()) >= MIN_TITLE_WORDS and not _FURNITURE.search(text) and not _runs_on(text, later):
             return text.rstrip(" .*"), size, top
     return None
+
+
+def _runs_on(text: str, later: list[str]) -> bool:
+    """Whether ``text`` stands in the running lines (first or last characters) of most of ``later``."""
+    wanted = _fold(text)
+    zones = [_fold(page[:RUNNING_ZONE] + " " + page[-RUNNING_ZONE:]) for page in later if page.strip()]
+    return len(zones) >= 2 and sum(wanted in zone for zone in zones) * 2 > len(zones)
 
 
 def _authors_below(runs: list[Run], title_top: float, title_size: float) -> tuple[str, ...]:
@@ -192,7 +205,7 @@ def read_identity(data: bytes, raw: RawPdf, texts: list[str], metadata_title: st
             # Page 2 is walked only behind a cover page: the layout pass costs about a page's extraction.
             cover = bool(texts) and COVER_MARKERS.search(texts[0]) is not None
             pages = [_runs(reader, i) for i in range(min(2 if cover else 1, len(reader.pages)))]
-        found = [_title_block(runs) for runs in pages]
+        found = [_title_block(runs, texts[i + 1 : i + 4]) for i, runs in enumerate(pages)]
         page = 2 if len(found) > 1 and found[1] else 1
         if found and found[page - 1]:
             title, size, top = found[page - 1]

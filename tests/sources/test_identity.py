@@ -76,6 +76,14 @@ def test_without_a_cover_marker_page_one_keeps_the_title(tmp_path: Path) -> None
     assert (identity.title, identity.title_page) == (TITLE, 1)
 
 
+def test_journal_name_in_large_type_that_runs_on_later_pages_is_not_the_title(tmp_path: Path) -> None:
+    masthead = "Journal of Invented Coastal Studies"
+    first = [(22, masthead), (18, TITLE), (11, "Ada Okafor"), (10, BODY)]
+    later = [[(8, f"{masthead} 12 (2021)"), (10, BODY)] for _ in range(3)]
+    identity = _read(typeset_pdf(tmp_path / "a.pdf", [first, *later])).identity
+    assert identity.title == TITLE
+
+
 def test_page_of_body_text_only_has_no_title(tmp_path: Path) -> None:
     identity = _read(typeset_pdf(tmp_path / "a.pdf", [[(10, BODY), (10, BODY)]])).identity
     assert identity.title is None
