@@ -121,6 +121,25 @@ class Passage:
 SECTION_ROLES = ("abstract", "background", "methods", "results", "discussion", "conclusions", "back-matter")
 
 
+@dataclass(frozen=True)
+class SourceIdentity:
+    """What a source PDF shows of its own identity, read from the file (sources/_identity.py).
+
+    ``title`` is the first page's title as typeset (the largest type near the top; page 2
+    when page 1 is a publisher's cover, then ``title_page`` is 2); ``metadata_title`` the
+    document's own title field, kept only when the title page shows it; ``dois`` and
+    ``arxiv_ids`` every identifier printed on the first pages; ``authors`` the first names
+    as printed under the title ("Robert W Aldridge").
+    """
+
+    title: str | None = None
+    metadata_title: str | None = None
+    dois: tuple[str, ...] = ()
+    arxiv_ids: tuple[str, ...] = ()
+    authors: tuple[str, ...] = ()
+    title_page: int = 1
+
+
 @dataclass
 class Source:
     """One readable source PDF: its identity, what can match it to a reference, and its passages."""
@@ -136,6 +155,8 @@ class Source:
     #: The page number printed on each PDF page ("305"), None where none could be read;
     #: one entry per PDF page, or empty when the document shows no consistent numbering.
     printed_pages: tuple[str | None, ...] = ()
+    #: What the file says it is, for matching references to it.
+    identity: SourceIdentity = field(default_factory=SourceIdentity)
 
 
 # --- matching (reference -> source) ----------------------------------------------------
@@ -148,6 +169,8 @@ class MatchMethod(StrEnum):
     DOI = "doi"
     TITLE = "title"
     AUTHOR_YEAR = "author-year"
+    ARXIV = "arxiv"
+    TITLE_IN_ENTRY = "title-in-entry"  # the source's title found inside the entry's text
 
 
 @dataclass(frozen=True)
@@ -158,6 +181,20 @@ class SourceMatch:
     source: str
     method: MatchMethod
     similarity: float = 1.0
+    #: How sure the match is, 0..1, from all the evidence together (sources/_match.py).
+    confidence: float = 1.0
+    #: The evidence in words ("doi on page 1; title found in the entry (97)").
+    detail: str = ""
+
+
+@dataclass(frozen=True)
+class MatchRefusal:
+    """Why a reference entry got no source: the closest file and what kept it out."""
+
+    key: str
+    candidate: str | None
+    reason: str
+    confidence: float = 0.0
 
 
 # --- index stage -----------------------------------------------------------------------
@@ -306,6 +343,8 @@ class Report:
     matches: dict[str, SourceMatch]
     unused_sources: list[str]
     problems: list[Problem]
+    #: For unmatched references: the closest source file and why it was refused.
+    refusals: dict[str, MatchRefusal] = field(default_factory=dict)
 
     def cited_keys(self) -> set[str]:
         """Reference keys that at least one citation in the text resolves to."""

@@ -8,7 +8,7 @@ only the dataclasses of :mod:`sourcecheck.model`; bad input inside a file become
 from __future__ import annotations
 
 from collections.abc import Callable
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from pathlib import Path
 from typing import TypedDict, Unpack
 
@@ -23,6 +23,7 @@ from sourcecheck.model import (
     ClaimResult,
     Draft,
     Hit,
+    MatchRefusal,
     ModelInfo,
     Passage,
     Problem,
@@ -37,7 +38,7 @@ from sourcecheck.sources import (
     discover_pdfs,
     file_sha256,
     load_mapping,
-    match_references,
+    match_sources,
     read_source,
 )
 
@@ -148,6 +149,8 @@ class Prepared:
     encoder: Encoder
     problems: list[Problem]
     cache: Cache
+    #: Why each unmatched reference has no source: its closest file and what kept it out.
+    refusals: dict[str, MatchRefusal] = field(default_factory=dict)
 
 
 @dataclass
@@ -199,9 +202,11 @@ def prepare_sources(
 def prepare_draft(draft: Draft, shared: PreparedSources, stats: RunStats | None = None) -> Prepared:
     """Match one draft's references to the prepared sources and embed its claims."""
     stats = stats if stats is not None else RunStats()
-    matches, match_problems = match_references(
-        draft.references, shared.sources, shared.mapping, sources_root=str(shared.folder)
+    matched = match_sources(
+        draft.references, shared.sources, shared.mapping, sources_root=str(shared.folder), draft=draft.path
     )
+    cited = {c.key for claim in draft.claims for c in claim.citations if c.key}
+    match_problems = [*matched.problems, *(p for key, p in matched.unmatched.items() if key in cited)]
     queries = [claim_query(c) for c in draft.claims]
     claim_vectors = embed_claims(queries, shared.encoder, shared.cache, stats)
     stats.model_loaded = shared.encoder.loaded
@@ -209,7 +214,8 @@ def prepare_draft(draft: Draft, shared: PreparedSources, stats: RunStats | None 
         draft=draft,
         sources=shared.sources,
         index=shared.index,
-        matches=matches,
+        matches=matched.matches,
+        refusals=matched.refusals,
         queries=queries,
         claim_vectors=claim_vectors,
         encoder=shared.encoder,
@@ -321,5 +327,6 @@ def judge_all(prepared: Prepared, draft_path: Path, sources_dir: Path) -> Report
         references=draft.references,
         matches=prepared.matches,
         unused_sources=unused_sources(prepared.sources, draft, prepared.matches),
+        refusals=prepared.refusals,
         problems=[*prepared.problems, *cache_problems],
     )

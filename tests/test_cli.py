@@ -178,3 +178,34 @@ def test_draft_without_citations_or_references_is_reported(
     assert code == EXIT_OK
     assert needle in err and "Traceback" not in err
     assert any(needle in p["message"] for p in json.loads(out)["problems"])
+
+
+def test_references_show_how_sure_each_match_is(cache: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    code, out, err = _run(
+        capsys, "check", str(DRAFT), "--sources", str(SOURCES), "--cache", str(cache), "--format", "json"
+    )
+    refs = {r["key"]: r for r in json.loads(out)["references"]}
+    assert code == EXIT_OK
+    assert refs["1"]["matched_by"] == "doi" and refs["1"]["confidence"] > 0.99 and "DOI" in refs["1"]["match_detail"]
+    # Reference 7 of the demo has no PDF: the closest file is named, with the reason, once.
+    assert refs["7"]["source"] is None and refs["7"]["closest_source"].endswith(".pdf")
+    assert refs["7"]["refused_because"] and err.count("reference '7' matched no source file") == 1
+
+
+def test_sources_folder_without_a_readable_pdf_is_one_line(
+    cache: Path, tmp_path: Path, capsys: pytest.CaptureFixture[str]
+) -> None:
+    folder = tmp_path / "sources"
+    folder.mkdir()
+    write_not_a_pdf(folder / "notes.pdf")
+    code, out, err = _run(
+        capsys, "check", str(DRAFT), "--sources", str(folder), "--cache", str(cache), "--format", "json"
+    )
+    data = json.loads(out)
+    assert code == EXIT_OK
+    lines = [p for p in data["problems"] if "no readable PDF" in p["message"]]
+    assert lines == [
+        {"file": str(folder), "message": "the sources folder holds no readable PDF; no reference can match"}
+    ]
+    assert all(r["source"] is None and r["closest_source"] is None for r in data["references"])
+    assert "Traceback" not in err

@@ -21,7 +21,7 @@ from pathlib import Path
 import numpy as np
 import platformdirs
 
-from sourcecheck.model import Passage, Source
+from sourcecheck.model import Passage, Source, SourceIdentity
 
 #: Version of the entry layout; 2 added ``printed_pages``. Older entries are rebuilt.
 FORMAT = 2
@@ -98,6 +98,9 @@ class Cache:
                 passages=passages,
                 author=data.get("author"),
                 printed_pages=tuple(None if label is None else str(label) for label in data["printed_pages"]),
+                identity=SourceIdentity(
+                    **{k: tuple(v) if isinstance(v, list) else v for k, v in data.get("identity", {}).items()}  # type: ignore[arg-type]
+                ),
             )
         except (OSError, ValueError, KeyError, TypeError) as exc:
             self.warnings.append(f"cache entry {path.name} was unreadable ({exc}); rebuilt")

@@ -38,6 +38,7 @@ from sourcecheck.pdftext import (
     typical_length,
     vocabulary,
 )
+from sourcecheck.sources._identity import read_identity
 from sourcecheck.sources._passages import make_passages
 from sourcecheck.sources._printed import printed_page_numbers
 from sourcecheck.sources._refsection import before_reference_heading, cut_reference_sections
@@ -191,7 +192,9 @@ def read_source(path: Path, display: str, sha256: str | None = None, max_words: 
     if not any(ch.isalnum() for page in texts for ch in page):
         return Problem(file=display, message=NO_TEXT)
     try:
-        return _build(raw, texts, display, sha256 or hashlib.sha256(data).hexdigest(), max_words)
+        source = _build(raw, texts, display, sha256 or hashlib.sha256(data).hexdigest(), max_words)
+        source.identity = read_identity(data, raw, texts, raw.info.get("/Title") or raw.xmp_title)
+        return source
     except Exception as exc:  # a bug of ours on odd text must not stop the run either
         return Problem(file=display, message=f"text could not be processed ({exc!r})"[:160])
 

@@ -5,7 +5,7 @@ from dataclasses import replace
 
 import pytest
 
-from sourcecheck.model import Review
+from sourcecheck.model import MatchRefusal, Review
 from sourcecheck.reports.caution import CAUTION
 from sourcecheck.reports.json_report import SCHEMA, dumps
 from tests.reports.sample_report import sample_report
@@ -121,3 +121,17 @@ def test_the_schema_rejects_an_unknown_band() -> None:
     data["claims"][0]["checks"][0]["band"] = "fine"
     with pytest.raises(jsonschema.ValidationError):
         report_schema.validate(data)
+
+
+def test_references_carry_match_confidence_or_the_refusal() -> None:
+    report = sample_report()
+    report.matches["1"] = replace(report.matches["1"], confidence=0.996, detail="DOI in the file's metadata")
+    report.refusals["2"] = MatchRefusal(
+        "2", "src/orphan.pdf", "closest is src/orphan.pdf, but the evidence is too weak"
+    )
+    refs = {r["key"]: r for r in json.loads(dumps(report))["references"]}
+    assert (refs["1"]["confidence"], refs["1"]["match_detail"]) == (0.996, "DOI in the file's metadata")
+    assert "closest_source" not in refs["1"]
+    assert refs["2"]["closest_source"] == "src/orphan.pdf"
+    assert refs["2"]["refused_because"].startswith("closest is src/orphan.pdf")
+    assert "confidence" not in refs["2"] and "closest_source" not in refs["3"]
