@@ -35,3 +35,24 @@ def test_quiet_restores_the_pypdf_logger_level() -> None:
         assert logger.level == logging.INFO
     finally:
         logger.setLevel(logging.NOTSET)
+
+
+def test_pages_over_the_page_limit_are_not_read_and_the_cut_is_said(tmp_path: Path) -> None:
+    from sourcecheck.pdftext import read_pdf
+    from tests.hostile import many_pages_pdf
+
+    data = many_pages_pdf(tmp_path / "long.pdf", 12).read_bytes()
+    raw = read_pdf(data, max_pages=5)
+    assert len(raw.pages) == 5 and "Page 5:" in raw.pages[4]
+    assert raw.cut == "12 pages, over the limit of 5 (pdf_pages); only the first 5 read"
+    assert read_pdf(data).cut == ""
+
+
+def test_the_time_budget_is_checked_between_pages(tmp_path: Path) -> None:
+    from sourcecheck.pdftext import read_pdf
+    from tests.hostile import many_pages_pdf
+
+    # A budget already spent after the first page: page 1 is always read, page 2 is not started.
+    raw = read_pdf(many_pages_pdf(tmp_path / "slow.pdf", 3).read_bytes(), seconds=1e-9)
+    assert len(raw.pages) == 1
+    assert raw.cut == "reading took over the limit of 1e-09 s (source_seconds); pages 2 on not read"
