@@ -39,8 +39,11 @@ def deep_json(depth: int) -> str:
 def deep_latex(depth: int) -> str:
     """A LaTeX draft with one citing sentence inside ``depth`` nested groups."""
     body = "{" * depth + r"Nests rose by 18\% \cite{a}." + "}" * depth
-    return "\\begin{document}\n" + body + "\n\\begin{thebibliography}{1}\n\\bibitem{a} A. Okafor. 2019.\n" + (
-        "\\end{thebibliography}\n\\end{document}\n"
+    return (
+        "\\begin{document}\n"
+        + body
+        + "\n\\begin{thebibliography}{1}\n\\bibitem{a} A. Okafor. 2019.\n"
+        + ("\\end{thebibliography}\n\\end{document}\n")
     )
 
 

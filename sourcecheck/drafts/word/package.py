@@ -22,6 +22,8 @@ from docx.opc.constants import RELATIONSHIP_TYPE as RT
 from docx.opc.exceptions import PackageNotFoundError
 from lxml import etree
 
+from sourcecheck.drafts.word.members import member_problem
+from sourcecheck.limits import Limits
 from sourcecheck.model import Problem
 
 # First bytes of an OLE compound file (MS-CFB), the container of encrypted OOXML and .doc.
@@ -45,12 +47,23 @@ class WordPackage:
     problems: list[Problem] = field(default_factory=list)
 
 
-def open_package(data: bytes, display: str) -> tuple[WordPackage | None, Problem | None]:
-    """The package's parts, or None and the one problem that says why there are none."""
+def open_package(data: bytes, display: str, limits: Limits | None = None) -> tuple[WordPackage | None, Problem | None]:
+    """The package's parts, or None and the one problem that says why there are none.
+
+    Every zip member's size (declared and inflated) is checked against ``limits`` and
+    every XML part for a DTD before python-docx opens the package (:mod:`.members`).
+    """
     if data.startswith(_OLE_MAGIC):
         return None, Problem(display, _ole_message(data))
     if not zipfile.is_zipfile(io.BytesIO(data)):
         return None, Problem(display, "not a Word document (not a zip file)")
+    try:
+        with zipfile.ZipFile(io.BytesIO(data)) as archive:
+            refused = member_problem(archive, limits or Limits())
+    except (zipfile.BadZipFile, OSError, EOFError, RuntimeError, NotImplementedError, ValueError) as error:
+        return None, Problem(display, f"cannot be read as a Word document ({_short(error)})")
+    if refused:
+        return None, Problem(display, refused)
     try:
         document = docx.Document(io.BytesIO(data))
     except (KeyError, ValueError, PackageNotFoundError, zipfile.BadZipFile, etree.XMLSyntaxError) as error:
