@@ -58,6 +58,11 @@ def build_parser() -> argparse.ArgumentParser:
     check.add_argument("--cache", type=Path, metavar="DIR", help="cache folder (default: the user cache directory)")
     check.add_argument("--bib", type=Path, metavar="FILE", help="bibliography file for the draft's citation keys")
     check.add_argument("--format-in", metavar="NAME", help="read the draft as this format, whatever its suffix")
+    check.add_argument(
+        "--follow-links",
+        action="store_true",
+        help="read source PDFs that are symbolic links to files outside the sources folder",
+    )
     check.add_argument("--quiet", action="store_true", help="no progress bar")
     return parser
 
@@ -80,6 +85,7 @@ def _run_check(args: argparse.Namespace) -> int:
 
     from sourcecheck.api import check
     from sourcecheck.reports import dumps, progress_bar, render
+    from sourcecheck.text import visible
 
     errors = Console(stderr=True)
     show_progress = not args.quiet and errors.is_terminal
@@ -93,9 +99,10 @@ def _run_check(args: argparse.Namespace) -> int:
             model=args.model,
             cache=args.cache,
             progress=progress,
+            follow_links=args.follow_links,
         )
-    for problem in report.problems:
-        print(f"sourcecheck: {problem.file}: {problem.message}", file=sys.stderr)  # one line, never wrapped
+    for problem in report.problems:  # one line each, never wrapped; control characters shown, not obeyed
+        print(visible(f"sourcecheck: {problem.file}: {problem.message}"), file=sys.stderr)
     if args.format == "json":
         text = dumps(report)
     else:
@@ -115,26 +122,29 @@ def _run_check(args: argparse.Namespace) -> int:
 
 def main(argv: Sequence[str] | None = None) -> int:
     """Entry point of the ``sourcecheck`` script and ``python -m sourcecheck``."""
-    from sourcecheck.errors import SourcecheckError
-
     args = build_parser().parse_args(argv)
+    from sourcecheck.errors import SourcecheckError
+    from sourcecheck.text import visible
+
     try:
         return _run_check(args)
     except SourcecheckError as exc:
-        print(f"sourcecheck: {exc}", file=sys.stderr)
+        print(visible(f"sourcecheck: {exc}"), file=sys.stderr)
         return EXIT_INPUT
     except KeyboardInterrupt:
         print("sourcecheck: interrupted; nothing was written", file=sys.stderr)
         return 130
     except OSError as exc:
         where = f"{exc.filename}: " if exc.filename else ""
-        print(f"sourcecheck: {where}{exc.strerror or exc}", file=sys.stderr)
+        print(visible(f"sourcecheck: {where}{exc.strerror or exc}"), file=sys.stderr)
         return EXIT_INPUT
     except Exception as exc:  # the user gets one line, not a traceback
         if os.environ.get("SOURCECHECK_DEBUG"):
             raise
         print(
-            f"sourcecheck: internal error ({type(exc).__name__}: {exc}); rerun with SOURCECHECK_DEBUG=1 for details",
+            visible(
+                f"sourcecheck: internal error ({type(exc).__name__}: {exc}); rerun with SOURCECHECK_DEBUG=1 for details"
+            ),
             file=sys.stderr,
         )
         return EXIT_INTERNAL
