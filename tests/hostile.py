@@ -47,9 +47,12 @@ def deep_latex(depth: int) -> str:
     )
 
 
-def long_paragraph(sentences: int) -> str:
-    """A Markdown draft whose body is one paragraph of ``sentences`` cited sentences."""
-    body = " ".join(f"Heron nests rose by {i % 90 + 1}% on plot {i} [1]." for i in range(sentences))
+def long_paragraph(sentences: int, cite_every: int = 1) -> str:
+    """A Markdown draft whose body is one paragraph of ``sentences`` sentences, every ``cite_every``-th cited."""
+    body = " ".join(
+        f"Heron nests rose by {i % 90 + 1}% on plot {i}{' [1]' if i % cite_every == 0 else ''}."
+        for i in range(sentences)
+    )
     return body + "\n\n## References\n\n1. Okafor A. Tidal herons. 2019.\n"
 
 
