@@ -40,9 +40,13 @@ def inside_folder(path: Path, folder: Path) -> bool:
 
     A draft from a stranger may name "../../home/user/.ssh/id_rsa" as its bibliography;
     what the draft names is read only inside the draft's folder, as ``\\input`` is.
-    A file the user names (``--bib``) is the user's choice and is not confined.
+    A file the user names (``--bib``) is the user's choice and is not confined. A name
+    no file can have (a NUL byte, too long) is refused too.
     """
-    return Path(path).resolve().is_relative_to(Path(folder).resolve())
+    try:
+        return Path(path).resolve().is_relative_to(Path(folder).resolve())
+    except (OSError, ValueError):
+        return False
 
 
 Parser = Callable[[str, str], tuple[list[Reference], list[Problem]]]

@@ -204,3 +204,11 @@ def test_front_matter_bibliography_outside_the_drafts_folder_is_refused(tmp_path
     ]
     # The same file given by the user (--bib) is read.
     assert [r.key for r in draft_bibliography(text, "paper/draft.md", outside, folder).references] == ["okafor2019"]
+
+
+def test_a_front_matter_name_no_file_can_have_is_refused_not_a_crash(tmp_path: Path) -> None:
+    # Found by scripts/fuzz.py: a NUL byte in the name made path resolution raise.
+    text = "---\nbibliography: a\x00b.bib\n---\n\nCarbon rose [@okafor2019].\n"
+    bibliography = draft_bibliography(text, "draft.md", base_dir=tmp_path)
+    assert bibliography.references == []
+    assert ["outside the draft's folder" in p.message for p in bibliography.problems] == [True]
