@@ -174,3 +174,13 @@ def huge_npy_header(rows: int) -> bytes:
     buffer = io.BytesIO()
     np.lib.format.write_array_header_1_0(buffer, header)
     return buffer.getvalue()
+
+
+def corrupt_deflate_docx() -> bytes:
+    """A .docx whose document.xml deflate stream is broken mid-way (zlib raises, not zipfile)."""
+    data = bytearray(plain_docx())
+    info = zipfile.ZipFile(io.BytesIO(bytes(data))).getinfo("word/document.xml")
+    name_length, extra_length = struct.unpack_from("<HH", data, info.header_offset + 26)
+    start = info.header_offset + 30 + name_length + extra_length
+    data[start + 2 : start + 6] = b"\xff\xff\xff\xff"  # a block header no deflate stream can hold
+    return bytes(data)

@@ -14,7 +14,9 @@ encrypted package, as is a legacy binary .doc renamed to .docx.
 from __future__ import annotations
 
 import io
+import lzma
 import zipfile
+import zlib
 from dataclasses import dataclass, field
 
 import docx
@@ -31,6 +33,9 @@ _OLE_MAGIC = b"\xd0\xcf\x11\xe0\xa1\xb1\x1a\xe1"
 # OLE directory entries name streams in UTF-16LE: these two tell the two OLE cases apart.
 _ENCRYPTED_STREAM = "EncryptedPackage".encode("utf-16-le")
 _LEGACY_WORD_STREAM = "WordDocument".encode("utf-16-le")
+# How a damaged zip member fails while it is inflated: zipfile's own errors, then the
+# decompressors' (a corrupt deflate stream raises zlib.error, an LZMA one LZMAError).
+_DAMAGED = (zipfile.BadZipFile, OSError, EOFError, RuntimeError, zlib.error, lzma.LZMAError)
 # Entities off and no network: a draft is untrusted input.
 _PARSER = etree.XMLParser(resolve_entities=False, no_network=True, huge_tree=False)
 
@@ -60,7 +65,7 @@ def open_package(data: bytes, display: str, limits: Limits | None = None) -> tup
     try:
         with zipfile.ZipFile(io.BytesIO(data)) as archive:
             refused = member_problem(archive, limits or Limits())
-    except (zipfile.BadZipFile, OSError, EOFError, RuntimeError, NotImplementedError, ValueError) as error:
+    except (*_DAMAGED, NotImplementedError, ValueError) as error:
         return None, Problem(display, f"cannot be read as a Word document ({_short(error)})")
     if refused:
         return None, Problem(display, refused)
@@ -68,7 +73,7 @@ def open_package(data: bytes, display: str, limits: Limits | None = None) -> tup
         document = docx.Document(io.BytesIO(data))
     except (KeyError, ValueError, PackageNotFoundError, zipfile.BadZipFile, etree.XMLSyntaxError) as error:
         return None, Problem(display, _not_word_message(data, error))
-    except (OSError, EOFError, RuntimeError) as error:  # damaged zip members, bad CRC, zip encryption
+    except _DAMAGED as error:  # damaged zip members, bad CRC, zip encryption
         return None, Problem(display, f"cannot be read as a Word document ({_short(error)})")
     body = document.element.body
     if body is None:

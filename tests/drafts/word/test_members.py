@@ -42,3 +42,12 @@ def test_an_external_entity_is_refused_in_one_line_not_lost_silently() -> None:
     assert [p.message for p in draft.problems] == [
         "word/document.xml declares a DTD or entity (<!DOCTYPE/<!ENTITY), which Word never writes; not read"
     ]
+
+
+def test_a_broken_deflate_stream_is_one_problem_not_a_crash() -> None:
+    # Found by scripts/fuzz.py: zlib's own error escaped the zip checks.
+    draft = read_word_bytes(hostile.corrupt_deflate_docx(), "d.docx")
+    assert draft.claims == []
+    assert [p.message for p in draft.problems] == [
+        "cannot be read as a Word document (Error -3 while decompressing data: invalid code lengths set)"
+    ]
