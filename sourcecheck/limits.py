@@ -24,7 +24,7 @@ class Limits:
     #: scanned book is about 100 MB (common practice, no source).
     file_bytes: int = 256 * MIB
     #: Bytes one member of a zip package (a .docx part) may inflate to. Word's document.xml
-    #: of a 300-page thesis is a few MB (measured on our own samples, not a published figure).
+    #: of a 300-page thesis is a few MB (from memory, not a measured or published figure).
     zip_member_bytes: int = 64 * MIB
     #: Bytes all members of one zip package may inflate to together.
     zip_total_bytes: int = 256 * MIB
@@ -41,7 +41,8 @@ class Limits:
     #: Citations of one sentence; the rest are not checked. A sentence citing a hundred
     #: works is already a list, not a claim.
     sentence_citations: int = 100
-    #: Nesting depth of JSON (CSL-JSON, cache entries) and of LaTeX groups.
+    #: Nesting depth of CSL-JSON and of LaTeX groups (a CSL item is four levels deep). A
+    #: cache entry too deep for Python's parser is rebuilt whatever this says.
     nesting_depth: int = 100
     #: Seconds spent reading one source PDF, checked between pages (not a signal: a page
     #: that is slow on its own is finished first).
