@@ -17,6 +17,7 @@ from __future__ import annotations
 
 from sourcecheck.api import Progress, check, check_many
 from sourcecheck.errors import SourcecheckError
+from sourcecheck.limits import Limits
 from sourcecheck.model import (
     Band,
     Check,
@@ -41,6 +42,7 @@ __all__ = [
     "Claim",
     "ClaimResult",
     "Evidence",
+    "Limits",
     "Problem",
     "Progress",
     "ReadOptions",

@@ -11,6 +11,7 @@ import os
 from collections.abc import Callable, Sequence
 from pathlib import Path
 
+from sourcecheck.limits import Limits
 from sourcecheck.model import Problem, ReadOptions, Report, RunStats
 
 #: Called as ``progress(stage, done, total)`` while sources are read and embedded.
@@ -32,6 +33,8 @@ def check(
     cache: str | os.PathLike[str] | None = None,
     progress: Progress | None = None,
     stats: RunStats | None = None,
+    limits: Limits | None = None,
+    follow_links: bool = False,
 ) -> Report:
     """Check every cited claim of ``draft`` against the PDFs under ``sources``.
 
@@ -45,6 +48,8 @@ def check(
         cache: where passages and vectors are cached (default: the user cache directory).
         progress: called as ``progress(stage, done, total)`` while sources are read and embedded.
         stats: counters of what the run cost, filled in as it goes.
+        limits: how much of each file is read (``sourcecheck.Limits``; the defaults when None).
+        follow_links: read source PDFs that are symbolic links to files outside ``sources``.
 
     Checks a person accepted (the review file beside the draft, or an ignore comment in
     it) come back with ``Check.reviewed`` set; an accepted check whose fingerprint no
@@ -64,6 +69,8 @@ def check(
         cache=cache,
         progress=progress,
         stats=stats,
+        limits=limits,
+        follow_links=follow_links,
     )[0]
 
 
@@ -78,6 +85,8 @@ def check_many(
     cache: str | os.PathLike[str] | None = None,
     progress: Progress | None = None,
     stats: RunStats | None = None,
+    limits: Limits | None = None,
+    follow_links: bool = False,
 ) -> list[Report]:
     """Check several drafts against one folder of sources, in order; one report per draft.
 
@@ -99,7 +108,10 @@ def check_many(
         cache_dir=Path(cache) if cache is not None else None,
         progress=progress or _quiet,
         stats=stats,
-        read_options=ReadOptions(bibliography=Path(bib) if bib is not None else None, format=format_in),
+        read_options=ReadOptions(
+            bibliography=Path(bib) if bib is not None else None, format=format_in, limits=limits or Limits()
+        ),
+        follow_links=follow_links,
     )
     for path, report in zip(paths, reports, strict=True):
         _apply_review_state(path, report)

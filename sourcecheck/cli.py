@@ -64,6 +64,12 @@ def _run_options() -> argparse.ArgumentParser:
     options.add_argument("--format-in", choices=FORMATS_IN, help="read the draft as this format, whatever its suffix")
     options.add_argument("--quiet", action="store_true", default=None, help="no progress bar")
     options.add_argument(
+        "--follow-links",
+        action="store_true",
+        default=None,
+        help="read source PDFs that are symbolic links to files outside the sources folder",
+    )
+    options.add_argument(
         "--config",
         type=Path,
         metavar="FILE",
@@ -164,6 +170,7 @@ def _run_check(args: argparse.Namespace) -> int:
     from sourcecheck.errors import SettingsError
     from sourcecheck.model import Band
     from sourcecheck.reports import progress_bar, render, render_summary
+    from sourcecheck.text import visible
     from sourcecheck.workflow import expand_drafts, gate_failures, report_names
     from sourcecheck.workspace import apply_settings, check_options
 
@@ -179,7 +186,8 @@ def _run_check(args: argparse.Namespace) -> int:
         reports = check_many(drafts, args.sources, progress=progress, **check_options(args))
     for report in reports:
         for problem in report.problems:
-            print(f"sourcecheck: {problem.file}: {problem.message}", file=sys.stderr)  # one line, never wrapped
+            # One line each, never wrapped; control characters shown, not obeyed.
+            print(visible(f"sourcecheck: {problem.file}: {problem.message}"), file=sys.stderr)
     if args.output_dir:
         for report, name in zip(reports, report_names(drafts, EXTENSIONS[report_format]), strict=True):
             _write_atomically(args.output_dir / name, _report_text(report, report_format, bool(args.all)))
@@ -212,26 +220,29 @@ def _dispatch(args: argparse.Namespace) -> int:
 
 def main(argv: Sequence[str] | None = None) -> int:
     """Entry point of the ``sourcecheck`` script and ``python -m sourcecheck``."""
-    from sourcecheck.errors import SourcecheckError
-
     args = build_parser().parse_args(argv)
+    from sourcecheck.errors import SourcecheckError
+    from sourcecheck.text import visible
+
     try:
         return _dispatch(args)
     except SourcecheckError as exc:
-        print(f"sourcecheck: {exc}", file=sys.stderr)
+        print(visible(f"sourcecheck: {exc}"), file=sys.stderr)
         return EXIT_INPUT
     except KeyboardInterrupt:
         print("sourcecheck: interrupted; nothing was written", file=sys.stderr)
         return 130
     except OSError as exc:
         where = f"{exc.filename}: " if exc.filename else ""
-        print(f"sourcecheck: {where}{exc.strerror or exc}", file=sys.stderr)
+        print(visible(f"sourcecheck: {where}{exc.strerror or exc}"), file=sys.stderr)
         return EXIT_INPUT
     except Exception as exc:  # the user gets one line, not a traceback
         if os.environ.get("SOURCECHECK_DEBUG"):
             raise
         print(
-            f"sourcecheck: internal error ({type(exc).__name__}: {exc}); rerun with SOURCECHECK_DEBUG=1 for details",
+            visible(
+                f"sourcecheck: internal error ({type(exc).__name__}: {exc}); rerun with SOURCECHECK_DEBUG=1 for details"
+            ),
             file=sys.stderr,
         )
         return EXIT_INTERNAL

@@ -12,6 +12,8 @@ from dataclasses import dataclass, field
 from enum import StrEnum
 from pathlib import Path
 
+from sourcecheck.limits import Limits
+
 
 @dataclass(frozen=True)
 class Problem:
@@ -299,11 +301,13 @@ class ReadOptions:
     """What the user told us about the draft beyond its path.
 
     ``bibliography`` is ``--bib`` (a .bib, .bbl, CSL-JSON or RIS file); ``format`` is
-    ``--format-in``, which overrides the guess from the file's suffix.
+    ``--format-in``, which overrides the guess from the file's suffix; ``limits`` bounds
+    what is read of a stranger's file (:mod:`sourcecheck.limits`).
     """
 
     bibliography: Path | None = None
     format: str | None = None
+    limits: Limits = field(default_factory=Limits)
 
 
 @dataclass

@@ -19,6 +19,7 @@ from sourcecheck.drafts import read_draft
 from sourcecheck.errors import SourcesUnreadable
 from sourcecheck.index import Cache, Encoder, EvidenceIndex, Ranker, default_cache_dir, resolve_model_path, text_key
 from sourcecheck.judge import EVIDENCE_SEARCHED, Calibration, CitationJudge, Search, load_calibration
+from sourcecheck.limits import Limits
 from sourcecheck.model import (
     ClaimResult,
     Draft,
@@ -35,8 +36,8 @@ from sourcecheck.model import (
 )
 from sourcecheck.sources import (
     EXTRACTOR_VERSION,
-    discover_pdfs,
     file_sha256,
+    find_pdfs,
     load_mapping,
     match_sources,
     read_source,
@@ -55,16 +56,21 @@ def _display(root_arg: Path, pdf: Path, root: Path) -> str:
 
 
 def read_sources(
-    folder: Path, cache: Cache, progress: ProgressHook, stats: RunStats
+    folder: Path,
+    cache: Cache,
+    progress: ProgressHook,
+    stats: RunStats,
+    limits: Limits | None = None,
+    follow_links: bool = False,
 ) -> tuple[list[Source], list[Problem]]:
     """Every readable PDF under ``folder``, from the cache where its content is known."""
     if not folder.is_dir():
         raise SourcesUnreadable(
             f"{folder}: sources folder not found" if not folder.exists() else f"{folder}: not a folder"
         )
-    pdfs = discover_pdfs(folder)
+    limits = limits or Limits()
+    pdfs, problems = find_pdfs(folder, follow_links=follow_links, limits=limits)
     sources: list[Source] = []
-    problems: list[Problem] = []
     for done, pdf in enumerate(pdfs, start=1):
         display = _display(folder, pdf, folder)
         try:
@@ -77,12 +83,15 @@ def read_sources(
             sources.append(cached)
             stats.sources_from_cache += 1
         else:
-            result = read_source(pdf, display, sha256=sha)
+            notes: list[Problem] = []
+            result = read_source(pdf, display, sha256=sha, limits=limits, notes=notes)
+            problems.extend(notes)
             if isinstance(result, Problem):
                 problems.append(result)
             else:
                 sources.append(result)
-                cache.save_source(result, EXTRACTOR_VERSION)
+                if not notes:  # a source read only in part is not what its content hash promises
+                    cache.save_source(result, EXTRACTOR_VERSION)
                 stats.sources_read += 1
         progress("read", done, len(pdfs))
     return sources, problems
@@ -178,6 +187,8 @@ def prepare_sources(
     cache_dir: Path | None = None,
     progress: ProgressHook = _noop,
     stats: RunStats | None = None,
+    limits: Limits | None = None,
+    follow_links: bool = False,
 ) -> PreparedSources:
     """Read every PDF under ``sources_dir`` (from the cache where known), embed and index the passages."""
     stats = stats if stats is not None else RunStats()
@@ -185,7 +196,9 @@ def prepare_sources(
     mapping_table = load_mapping(mapping) if mapping is not None else None
     cache = Cache(cache_dir if cache_dir is not None else default_cache_dir())
     encoder = Encoder(model_path)
-    sources, source_problems = read_sources(sources_dir, cache, progress, stats)
+    sources, source_problems = read_sources(
+        sources_dir, cache, progress, stats, limits=limits, follow_links=follow_links
+    )
     vectors = embed_sources(sources, encoder, cache, progress, stats)
     passages: list[Passage] = [p for s in sources for p in s.passages]
     return PreparedSources(
@@ -234,13 +247,26 @@ def prepare(
     progress: ProgressHook = _noop,
     stats: RunStats | None = None,
     read_options: ReadOptions | None = None,
+    follow_links: bool = False,
 ) -> Prepared:
-    """Read the draft and the sources, build the index, match references, embed claims."""
+    """Read the draft and the sources, build the index, match references, embed claims.
+
+    ``read_options.limits`` bounds the draft and the sources alike; ``follow_links`` reads
+    PDFs that are links to files outside ``sources_dir``.
+    """
     stats = stats if stats is not None else RunStats()
+    read_options = read_options or ReadOptions()
     resolve_model_path(model)  # a missing model stops the run before any file is read
     draft = read_draft(draft_path, display=str(draft_path), options=read_options)
     shared = prepare_sources(
-        sources_dir, mapping=mapping, model=model, cache_dir=cache_dir, progress=progress, stats=stats
+        sources_dir,
+        mapping=mapping,
+        model=model,
+        cache_dir=cache_dir,
+        progress=progress,
+        stats=stats,
+        limits=read_options.limits,
+        follow_links=follow_links,
     )
     return prepare_draft(draft, shared, stats)
 
@@ -254,6 +280,7 @@ class RunOptions(TypedDict, total=False):
     progress: ProgressHook
     stats: RunStats | None
     read_options: ReadOptions | None
+    follow_links: bool
 
 
 def run(draft_path: Path, sources_dir: Path, **options: Unpack[RunOptions]) -> Report:
@@ -278,6 +305,8 @@ def run_many(draft_paths: list[Path], sources_dir: Path, **options: Unpack[RunOp
         cache_dir=options.get("cache_dir"),
         progress=options.get("progress", _noop),
         stats=stats,
+        limits=read_options.limits if read_options is not None else None,
+        follow_links=options.get("follow_links", False),
     )
     return [
         judge_all(prepare_draft(draft, shared, stats), path, sources_dir)

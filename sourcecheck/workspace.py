@@ -46,4 +46,11 @@ def apply_settings(args: argparse.Namespace, draft: Path, parser: argparse.Argum
 
 def check_options(args: argparse.Namespace) -> dict[str, Any]:
     """The keyword options of ``sourcecheck.check`` from the parsed (and settings-filled) command line."""
-    return {"bib": args.bib, "format_in": args.format_in, "mapping": args.map, "model": args.model, "cache": args.cache}
+    return {
+        "bib": args.bib,
+        "format_in": args.format_in,
+        "mapping": args.map,
+        "model": args.model,
+        "cache": args.cache,
+        "follow_links": bool(getattr(args, "follow_links", False)),
+    }

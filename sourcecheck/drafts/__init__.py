@@ -66,7 +66,7 @@ def read_draft(path: Path, display: str | None = None, options: ReadOptions | No
     options = options or ReadOptions()
     name = display or str(path)
     path = Path(path)
-    read_bytes(path, name)  # fail early, and the same way for every format, on a missing file
+    read_bytes(path, name, options.limits.file_bytes)  # fail early, the same way for every format
     notes: list[Problem] = []
     if options.format is not None:
         if options.format not in READERS:

@@ -73,7 +73,7 @@ def _check_full(console: Console, check: Check, show_all: bool) -> None:
     head, keep = _head(check, short=False)
     emit(console, head, indent=2, hang=6, keep=keep_spans(head.plain, keep))
     for evidence in check.evidence if show_all else check.evidence[:1]:
-        where = place_of(evidence)
+        where = visible(place_of(evidence))
         passage = Text(f"{where}: \u201c{visible(trim(evidence.text, PASSAGE_WORDS))}\u201d", style="italic")
         emit(console, passage, indent=4, hang=6, keep=keep_spans(passage.plain, [where]))
     for reason in check.reasons:

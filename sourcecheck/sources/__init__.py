@@ -5,6 +5,7 @@ Public surface (everything else in this package is private and may change):
     EXTRACTOR_VERSION   changes whenever passages for the same bytes would differ;
                         part of the cache key
     discover_pdfs       the PDFs in a sources folder
+    find_pdfs           the same, with the problems met (links out, unreadable folders, size)
     file_sha256         a file's content hash
     read_source         one PDF -> Source, or a Problem (never raises)
     load_mapping        the --map file -> {reference key: file}
@@ -15,7 +16,7 @@ Public surface (everything else in this package is private and may change):
 
 from __future__ import annotations
 
-from sourcecheck.sources._files import discover_pdfs, file_sha256
+from sourcecheck.sources._files import discover_pdfs, file_sha256, find_pdfs
 from sourcecheck.sources._mapping import load_mapping
 from sourcecheck.sources._match import MatchOutcome, match_references, match_sources
 from sourcecheck.sources._reader import read_source
@@ -28,6 +29,7 @@ __all__ = [
     "MatchOutcome",
     "discover_pdfs",
     "file_sha256",
+    "find_pdfs",
     "load_mapping",
     "match_references",
     "match_sources",

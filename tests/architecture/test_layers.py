@@ -1,7 +1,7 @@
 """The layer contract: which package may import which, and only through its face.
 
 The pipeline is draft -> claims -> sources -> index -> judgment -> report, over two shared
-layers (plain text, PDF text) and one vocabulary (model, errors). A stage reads another
+layers (plain text, PDF text) and one vocabulary (model, errors, limits). A stage reads another
 package only through that package's ``__init__`` (its face, with an explicit
 ``__all__``), and only the packages listed in ``ALLOWED`` below. Adding a cross-stage
 import of a private module, or a new dependency between stages, fails here first.
@@ -18,7 +18,7 @@ import pytest
 ROOT = Path(__file__).resolve().parents[2]
 PACKAGE = ROOT / "sourcecheck"
 
-VOCABULARY = {"model", "errors"}
+VOCABULARY = {"model", "errors", "limits"}
 SHARED = {"text", "pdftext"}
 STAGES = {"drafts", "claims", "sources", "index", "judge", "reports"}
 #: What people do with reports (gates, review state, settings, batches): beside the stages, reading only the vocabulary.
@@ -27,8 +27,9 @@ TOP = {"pipeline", "api", "cli", "__init__", "__main__", "workspace", "review_co
 
 #: What each package may import besides itself. Drafts hand their prose to the claims stage.
 ALLOWED: dict[str, set[str]] = {
-    "model": set(),
+    "model": {"limits"},
     "errors": set(),
+    "limits": set(),
     "text": set(),
     "pdftext": {"text", "errors", "model"},
     "drafts": VOCABULARY | SHARED | {"claims"},

@@ -126,3 +126,29 @@ def test_entry_without_an_identity_loads_with_an_empty_one(tmp_path: Path) -> No
     path.write_text(json.dumps(data), encoding="utf-8")
     loaded = cache.load_source("ab" * 32, "x1", "src/a.pdf")
     assert loaded is not None and loaded.identity == SourceIdentity()
+
+
+def test_a_cache_path_that_is_a_file_is_reported_once_and_the_run_goes_on(tmp_path: Path) -> None:
+    blocker = tmp_path / "cache"
+    blocker.write_text("not a folder", encoding="utf-8")
+    cache = Cache(blocker)
+    assert cache.load_source("ab" * 32, "x1", "a.pdf") is None
+    cache.save_source(_source(), "x1")
+    cache.save_vectors("passages", "k", np.ones((2, 3), dtype=np.float32))
+    assert cache.writable is False
+    assert cache.warnings == ["cache folder cannot be written (Not a directory); this run goes on without saving to it"]
+
+
+def test_a_read_only_cache_still_serves_what_it_holds(tmp_path: Path, monkeypatch) -> None:
+    cache = Cache(tmp_path)
+    cache.save_source(_source(), "x1")
+
+    def refuse(*args: object, **kwargs: object) -> None:  # a read-only folder, even for root
+        raise PermissionError(13, "Permission denied")
+
+    monkeypatch.setattr("sourcecheck.index.cache.tempfile.mkstemp", refuse)
+    assert cache.load_source("ab" * 32, "x1", "b.pdf") is not None
+    cache.save_vectors("passages", "k", np.ones((2, 3), dtype=np.float32))
+    said = "cache folder cannot be written (Permission denied); this run goes on without saving to it"
+    assert cache.warnings == [said]
+    assert cache.vectors_written == 0

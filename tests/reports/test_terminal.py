@@ -5,7 +5,7 @@ from dataclasses import replace
 
 from rich.console import Console
 
-from sourcecheck.model import Band, Check, Reason, Report, Review
+from sourcecheck.model import Band, Check, Problem, Reason, Report, Review
 from sourcecheck.reports.terminal import plural, render, summary_line
 from tests.reports.sample_report import sample_report
 
@@ -132,3 +132,39 @@ def test_control_characters_in_a_claim_are_shown_not_obeyed() -> None:
     report.claims[0].claim = replace(report.claims[0].claim, text="Heron \x1b[31mnests rose [1].")
     text = _render(report, 100)
     assert "\x1b" not in text and "\\x1b[31mnests" in text
+
+
+def _hostile_report():
+    """The sample report with terminal escapes and rich markup planted wherever a file's text reaches."""
+    from tests.hostile import ESCAPES
+
+    report = sample_report()
+    planted = "".join(ESCAPES) + "[bold red]markup[/]"
+    result = report.claims[0]
+    check = replace(
+        result.checks[0],
+        source=f"src/evil{planted}\n.pdf",
+        evidence=[replace(result.checks[0].evidence[0], text=f"Heron nests {planted} rose.", section=planted)],
+    )
+    claim = replace(result.claim, text=f"Heron nests {planted} rose [1].")
+    ref = replace(report.references[2], key=f"k{planted}", text=f"[3] {planted}")
+    return replace(
+        report,
+        claims=[replace(result, claim=claim, checks=[check]), *report.claims[1:]],
+        references=[*report.references[:2], ref],
+        unused_sources=[f"src/orphan{planted}\n.pdf"],
+        problems=[Problem(f"src/x{planted}\n.pdf", f"not a PDF {planted}")],
+    )
+
+
+def test_text_from_files_reaches_the_terminal_escaped_and_never_as_markup() -> None:
+    console = Console(width=300, file=io.StringIO(), force_terminal=True, color_system=None)
+    render(_hostile_report(), console)
+    text = console.file.getvalue()  # type: ignore[attr-defined]
+    for raw in ("\x1b", "\x07", "\x9b", "\u202e"):
+        assert raw not in text
+    assert "\\x1b]0;owned\\x07" in text and "\\x9b2J" in text and "\\u202e" in text
+    # rich markup in a file's text is shown as written, not obeyed (with colour on, it would change style).
+    assert text.count("[bold red]markup[/]") == 9  # claim, source, passage, section, key, entry, file, problem x2
+    # A newline in a file name does not split its line: each planted name stays on one line.
+    assert "src/orphan" in text and "\\x0a.pdf" in text
