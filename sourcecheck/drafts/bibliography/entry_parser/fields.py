@@ -1,0 +1,169 @@
+"""Turning a labelled entry (spans of author, title, date, ...) into bibliographic fields.
+
+The same decoding reads the tagger's spans and, when measuring, the hand-labelled ones, so
+the cross-validation scores measure the labelling. Decoding strips the punctuation a style
+wraps fields in, joins a title the tagger broke in two around a stray word or two, takes
+the year from the date span (or from a Vancouver "2003;39:" volume), and reads family names
+from author spans (or from an editor span that stands in for the authors of an edited book).
+"""
+
+from __future__ import annotations
+
+import re
+from collections.abc import Sequence
+from dataclasses import dataclass
+
+from sourcecheck.drafts.bibliography.entry_parser.author_names import family_names
+from sourcecheck.drafts.bibliography.entry_parser.tokens import Token
+from sourcecheck.drafts.references import find_doi
+
+_YEAR_RE = re.compile(r"(?<![\d/.])(?P<year>1[5-9]\d\d|20[0-4]\d)(?P<suffix>[a-z])?(?![\d/])")
+_VANCOUVER_YEAR_RE = re.compile(r"^\(?(?P<year>1[5-9]\d\d|20[0-4]\d)(?P<suffix>[a-z])?\)?\s*[;:]")
+_OPENERS = "([{“\"‘'«„<"
+_CLOSERS = ".,;:)]}”\"’'»>"
+_CONTAINER_LEAD_RE = re.compile(r"^(?:in|dans|en|im)\s*:?\s+(?=\S)", re.IGNORECASE)
+_VOLUME_WORD_RE = re.compile(r"^(?:vol(?:ume)?s?|bd|t|tome|no|nr|n°|issue)\.?\s*", re.IGNORECASE)
+_PAGE_WORD_RE = re.compile(r"^(?:pp?|pages?|pgs?|s)\.?\s*", re.IGNORECASE)
+_VOLUME_PAGES_RE = re.compile(r"^(?P<volume>[\w()–-]+?)\s*:\s*(?P<pages>[A-Za-z]?\d+(?:\s*[-–—]\s*[A-Za-z]?\d+)?)$")
+_MAX_TITLE_GAP = 2  # tokens of another label allowed inside one title
+
+
+@dataclass(frozen=True)
+class LabelledSpan:
+    """A run of tokens with one label: its text as written and its character offsets."""
+
+    label: str
+    text: str
+    start: int
+    end: int
+
+
+@dataclass(frozen=True)
+class EntryFields:
+    """What a reference entry says, field by field; ``spans`` keeps the labelling it came from."""
+
+    authors: tuple[str, ...]
+    title: str | None
+    container: str | None
+    year: int | None
+    year_suffix: str
+    doi: str | None
+    volume: str | None
+    pages: str | None
+    publisher: str | None
+    spans: tuple[LabelledSpan, ...]
+
+
+def spans_from_labels(text: str, tokens: Sequence[Token], labels: Sequence[str]) -> tuple[LabelledSpan, ...]:
+    """Merge runs of equally labelled tokens into spans of ``text``."""
+    spans: list[LabelledSpan] = []
+    for token, label in zip(tokens, labels, strict=True):
+        if spans and spans[-1].label == label:
+            last = spans[-1]
+            spans[-1] = LabelledSpan(label, text[last.start : token.end], last.start, token.end)
+        else:
+            spans.append(LabelledSpan(label, token.text, token.start, token.end))
+    return tuple(spans)
+
+
+def decode_fields(text: str, spans: Sequence[LabelledSpan]) -> EntryFields:
+    """Fields of an entry from its labelled spans."""
+    title = _joined(text, spans, ("title",))
+    container = _joined(text, spans, ("journal", "container-title"))
+    if container:
+        container = clean_field(_CONTAINER_LEAD_RE.sub("", container))
+    year, suffix = _year(spans)
+    volume = _first(spans, "volume")
+    pages = _first(spans, "pages")
+    if volume and (split := _VOLUME_PAGES_RE.match(_VOLUME_WORD_RE.sub("", volume))):
+        volume = split["volume"]
+        pages = pages or split["pages"]
+    return EntryFields(
+        authors=_authors(spans),
+        title=clean_field(title) if title else None,
+        container=container or None,
+        year=year,
+        year_suffix=suffix,
+        doi=find_doi(text) or find_doi(_first(spans, "doi") or ""),
+        volume=clean_field(_VOLUME_WORD_RE.sub("", volume)) or None if volume else None,
+        pages=clean_field(_PAGE_WORD_RE.sub("", pages)) or None if pages else None,
+        publisher=_first(spans, "publisher"),
+        spans=tuple(spans),
+    )
+
+
+def clean_field(text: str) -> str:
+    """A field without the brackets, quotes and punctuation a style puts around it.
+
+    A closing bracket stays when the field opens one of its own: "Imaging (MRI)".
+    """
+    text = " ".join(text.split())
+    while text:
+        before = text
+        text = text.rstrip(" ,;:.")
+        if text and text[-1] in _CLOSERS and not _balanced_closer(text):
+            text = text[:-1]
+        if text and text[0] in _OPENERS and not _balanced_opener(text):
+            text = text[1:]
+        text = text.strip()
+        if text == before:
+            break
+    return text
+
+
+def _balanced_closer(text: str) -> bool:
+    pairs = {")": "(", "]": "[", "}": "{"}
+    closer = text[-1]
+    return closer in pairs and text.count(pairs[closer]) >= text.count(closer)
+
+
+def _balanced_opener(text: str) -> bool:
+    pairs = {"(": ")", "[": "]", "{": "}"}
+    opener = text[0]
+    return opener in pairs and text.count(pairs[opener]) >= text.count(opener)
+
+
+def _first(spans: Sequence[LabelledSpan], label: str) -> str | None:
+    for span in spans:
+        if span.label == label:
+            return clean_field(span.text) or None
+    return None
+
+
+def _joined(text: str, spans: Sequence[LabelledSpan], labels: tuple[str, ...]) -> str | None:
+    """The first run of ``labels`` spans, joined across gaps of at most two tokens."""
+    start = end = None
+    gap = 0
+    for span in spans:
+        if span.label in labels:
+            if start is None:
+                start = span.start
+            elif gap > _MAX_TITLE_GAP:
+                break
+            end, gap = span.end, 0
+        elif start is not None:
+            gap += len(span.text.split())
+    return text[start:end] if start is not None else None
+
+
+def _year(spans: Sequence[LabelledSpan]) -> tuple[int | None, str]:
+    for span in spans:
+        if span.label == "date" and (match := _YEAR_RE.search(span.text)):
+            return int(match["year"]), match["suffix"] or ""
+    for span in spans:
+        if span.label == "volume" and (match := _VANCOUVER_YEAR_RE.match(span.text)):
+            return int(match["year"]), match["suffix"] or ""
+    return None, ""
+
+
+def _authors(spans: Sequence[LabelledSpan]) -> tuple[str, ...]:
+    """Names from author spans; failing those, from editors named before the title."""
+    for span in spans:
+        if span.label == "author" and (names := family_names(span.text)):
+            return names
+    for span in spans:
+        if span.label in {"title", "journal", "container-title"}:
+            break
+        if span.label == "editor" and (names := family_names(span.text)):
+            return names
+    return ()
