@@ -24,7 +24,11 @@ _CLOSERS = ".,;:)]}”\"’'»>"
 _CONTAINER_LEAD_RE = re.compile(r"^(?:in|dans|en|im)\s*:?\s+(?=\S)", re.IGNORECASE)
 _VOLUME_WORD_RE = re.compile(r"^(?:vol(?:ume)?s?|bd|t|tome|no|nr|n°|issue)\.?\s*", re.IGNORECASE)
 _PAGE_WORD_RE = re.compile(r"^(?:pp?|pages?|pgs?|s)\.?\s*", re.IGNORECASE)
-_VOLUME_PAGES_RE = re.compile(r"^(?P<volume>[\w()–-]+?)\s*:\s*(?P<pages>[A-Za-z]?\d+(?:\s*[-–—]\s*[A-Za-z]?\d+)?)$")
+# "12(3):45-67" and Vancouver's "2019;12(3):45-67": volume, then pages after the colon.
+_VOLUME_PAGES_RE = re.compile(
+    r"^(?:\(?\d{4}[a-z]?\)?\s*;\s*)?(?P<volume>[\w()–-]+?)"
+    r"(?:\s*:\s*(?P<pages>[A-Za-z]?\d+(?:\s*[-–—]\s*[A-Za-z]?\d+)?))?$"
+)
 _MAX_TITLE_GAP = 2  # tokens of another label allowed inside one title
 
 
@@ -71,7 +75,7 @@ def decode_fields(text: str, spans: Sequence[LabelledSpan]) -> EntryFields:
     title = _joined(text, spans, ("title",))
     container = _joined(text, spans, ("journal", "container-title"))
     if container:
-        container = clean_field(_CONTAINER_LEAD_RE.sub("", container))
+        container = _text_field(_CONTAINER_LEAD_RE.sub("", container))
     year, suffix = _year(spans)
     volume = _first(spans, "volume")
     pages = _first(spans, "pages")
@@ -80,14 +84,14 @@ def decode_fields(text: str, spans: Sequence[LabelledSpan]) -> EntryFields:
         pages = pages or split["pages"]
     return EntryFields(
         authors=_authors(spans),
-        title=clean_field(title) if title else None,
-        container=container or None,
+        title=_text_field(title),
+        container=container,
         year=year,
         year_suffix=suffix,
         doi=find_doi(text) or find_doi(_first(spans, "doi") or ""),
         volume=clean_field(_VOLUME_WORD_RE.sub("", volume)) or None if volume else None,
         pages=clean_field(_PAGE_WORD_RE.sub("", pages)) or None if pages else None,
-        publisher=_first(spans, "publisher"),
+        publisher=_text_field(_first(spans, "publisher")),
         spans=tuple(spans),
     )
 
@@ -105,10 +109,31 @@ def clean_field(text: str) -> str:
             text = text[:-1]
         if text and text[0] in _OPENERS and not _balanced_opener(text):
             text = text[1:]
+        if _wrapped(text):
+            text = text[1:-1]
         text = text.strip()
         if text == before:
             break
     return text
+
+
+def _text_field(text: str | None) -> str | None:
+    """A cleaned field, or None when nothing in it is a letter or digit."""
+    cleaned = clean_field(text or "")
+    return cleaned if any(ch.isalnum() for ch in cleaned) else None
+
+
+def _wrapped(text: str) -> bool:
+    """Whether one bracket pair encloses the whole text: "(pp. 4-9)" but not "(a) and (b)"."""
+    pairs = {"(": ")", "[": "]"}
+    if len(text) < 2 or pairs.get(text[0]) != text[-1]:
+        return False
+    depth = 0
+    for ch in text[:-1]:
+        depth += (ch == text[0]) - (ch == text[-1])
+        if depth == 0:
+            return False
+    return True
 
 
 def _balanced_closer(text: str) -> bool:
