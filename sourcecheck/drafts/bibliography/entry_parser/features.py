@@ -117,6 +117,44 @@ def _local(token: Token, lexicons: Lexicons) -> list[str]:
     return feats
 
 
+class _State:
+    """What the entry has opened or passed so far: a quotation, brackets, an "In" marker.
+
+    Quoted titles, bracketed publication details ("(London: Harbourside, 2016)") and the
+    container after "In" span many tokens; the window of two neighbours cannot see their
+    start, these flags can.
+    """
+
+    def __init__(self) -> None:
+        self.quote_depth = 0
+        self.bracket_depth = 0
+        self.quote_closed = False
+        self.after_in = False
+
+    def before(self, token: Token) -> list[str]:
+        opens_quote = any(ch in _OPEN_QUOTES for ch in token.lead)
+        feats = []
+        if self.quote_depth > 0 or opens_quote:
+            feats.append("in_quotes")
+        if self.bracket_depth > 0 or "(" in token.lead:
+            feats.append("in_brackets")
+        if self.quote_closed:
+            feats.append("after_quote")
+        if self.after_in:
+            feats.append("after_in")
+        return feats
+
+    def after(self, token: Token) -> None:
+        if any(ch in _OPEN_QUOTES for ch in token.lead) and not self.quote_depth:
+            self.quote_depth = 1
+        if self.quote_depth and any(ch in _CLOSE_QUOTES for ch in token.trail):
+            self.quote_depth = 0
+            self.quote_closed = True
+        self.bracket_depth = max(0, self.bracket_depth + token.text.count("(") - token.text.count(")"))
+        if token.core.lower() in {"in", "dans", "im"} and (token.trail[:1] in {"", ":"}) and token.core[:1].isupper():
+            self.after_in = True
+
+
 def entry_features(tokens: Sequence[Token], lexicons: Lexicons) -> list[list[str]]:
     """One list of string features per token, window ±2 included."""
     n = len(tokens)
@@ -128,8 +166,9 @@ def entry_features(tokens: Sequence[Token], lexicons: Lexicons) -> list[list[str
     result: list[list[str]] = []
     stops = 0
     years = 0
+    state = _State()
     for index, token in enumerate(tokens):
-        feats = ["bias", *local[index]]
+        feats = ["bias", *local[index], *state.before(token)]
         feats.append(f"pos={min(9, 10 * index // n)}")
         feats.append(f"index={min(index, 6)}")
         feats.append(f"stops={min(stops, 4)}")
@@ -153,6 +192,7 @@ def entry_features(tokens: Sequence[Token], lexicons: Lexicons) -> list[list[str
         result.append(feats)
         if token.trail.startswith(".") and not _is_initials(token):
             stops += 1
+        state.after(token)
         if _YEAR_INSIDE_RE.search(token.text):
             years += 1
     return result

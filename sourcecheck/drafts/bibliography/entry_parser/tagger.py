@@ -15,6 +15,7 @@ from sourcecheck.drafts.bibliography.entry_parser.tokens import tokenize
 
 MODEL_PATH = Path(__file__).resolve().parent / "model" / "entry_parser.crfsuite"
 MAX_TOKENS = 400  # longer "entries" are cut: no reference entry runs this long
+MIN_TITLE_ODDS = 0.1  # below this, an entry without a title keeps none
 
 
 class EntryTagger:
@@ -26,19 +27,43 @@ class EntryTagger:
         self._tagger = pycrfsuite.Tagger()
         self._tagger.open(str(model_path))
         self._lexicons: Mapping[str, frozenset[str]] = lexicons
+        self._known = frozenset(self._tagger.labels())
 
     def labels(self, text: str) -> list[str]:
         """One label per whitespace token of ``text`` (at most MAX_TOKENS tokens)."""
         tokens = tokenize(text)[:MAX_TOKENS]
         if not tokens:
             return []
-        return list(self._tagger.tag(entry_features(tokens, self._lexicons)))
+        labels = list(self._tagger.tag(entry_features(tokens, self._lexicons)))
+        if "title" not in labels and "title" in self._known:
+            labels = _with_title(labels, [self._tagger.marginal("title", i) for i in range(len(labels))])
+        return labels
 
     def parse(self, text: str) -> EntryFields:
         """The fields of one reference entry."""
         tokens = tokenize(text)[:MAX_TOKENS]
         labels = self.labels(text)
         return decode_fields(text, spans_from_labels(text, tokens, labels))
+
+
+def _with_title(labels: list[str], title_odds: list[float]) -> list[str]:
+    """Labels with the likeliest run of tokens relabelled as title.
+
+    Nearly every entry has a title, yet the best label sequence sometimes has none (the
+    title taken for a book's container or for more author names). The run is the token the
+    model thinks likeliest a title, grown while neighbours reach half its probability
+    and carry the same label as it.
+    """
+    best = max(range(len(labels)), key=title_odds.__getitem__)
+    if title_odds[best] < MIN_TITLE_ODDS:
+        return labels
+    start = end = best
+    floor = title_odds[best] / 2
+    while start > 0 and title_odds[start - 1] >= floor and labels[start - 1] == labels[best]:
+        start -= 1
+    while end + 1 < len(labels) and title_odds[end + 1] >= floor and labels[end + 1] == labels[best]:
+        end += 1
+    return [*labels[:start], *["title"] * (end - start + 1), *labels[end + 1 :]]
 
 
 @cache
