@@ -20,6 +20,8 @@ from sourcecheck.drafts.references import find_doi
 _YEAR_RE = re.compile(r"(?<![\d/.])(?P<year>1[5-9]\d\d|20[0-4]\d)(?P<suffix>[a-z])?(?![\d/])")
 _VANCOUVER_YEAR_RE = re.compile(r"^\(?(?P<year>1[5-9]\d\d|20[0-4]\d)(?P<suffix>[a-z])?\)?\s*[;:]")
 _OPENERS = "([{“\"‘'«„<"
+_IN_MARKER_RE = re.compile(r"(?<=[.?!”\"])\s+(?:In|Dans|Im)\b:?\s+(?=\S)")
+_QUOTE_PAIRS = {"“": "”", '"': '"', "«": "»", "„": "“"}
 _CLOSERS = ".,;:)]}”\"’'»>"
 _CONTAINER_LEAD_RE = re.compile(r"^(?:in|dans|en|im)\s*:?\s+(?=\S)", re.IGNORECASE)
 _VOLUME_WORD_RE = re.compile(r"^(?:vol(?:ume)?s?|bd|t|tome|no|nr|n°|issue)\.?\s*", re.IGNORECASE)
@@ -84,7 +86,7 @@ def decode_fields(text: str, spans: Sequence[LabelledSpan]) -> EntryFields:
         pages = pages or split["pages"]
     return EntryFields(
         authors=_authors(spans),
-        title=_text_field(title),
+        title=_text_field(_before_in_marker(_within_quotes(title))),
         container=container,
         year=year,
         year_suffix=suffix,
@@ -117,6 +119,26 @@ def clean_field(text: str) -> str:
     return text
 
 
+def _within_quotes(title: str | None) -> str | None:
+    """A quoted title ends where its quotation closes; the tagger sometimes runs it on
+    into the container that follows."""
+    if not title or title[0] not in _QUOTE_PAIRS:
+        return title
+    close = title.find(_QUOTE_PAIRS[title[0]], 1)
+    # Only a quotation closed after the title's own full stop or comma, as in
+    # "“Metaphor.” Oxford ...": "“Gli indesiderabili”. L’Italia ..." quotes inside a title.
+    if close < 0 or title[close - 1] not in ".,?!" or not title[close + 1 :].strip(" .,;:"):
+        return title
+    return title[: close + 1]
+
+
+def _before_in_marker(title: str | None) -> str | None:
+    """A title stops before ". In" or ". In:", which opens the container of a chapter or paper."""
+    if not title:
+        return title
+    return _IN_MARKER_RE.split(title, maxsplit=1)[0]
+
+
 def _text_field(text: str | None) -> str | None:
     """A cleaned field, or None when nothing in it is a letter or digit."""
     cleaned = clean_field(text or "")
@@ -143,9 +165,14 @@ def _balanced_closer(text: str) -> bool:
 
 
 def _balanced_opener(text: str) -> bool:
-    pairs = {"(": ")", "[": "]", "{": "}"}
+    """Whether the opening bracket or quotation mark at the start is closed later on."""
+    pairs = {"(": ")", "[": "]", "{": "}", **_QUOTE_PAIRS}
     opener = text[0]
-    return opener in pairs and text.count(pairs[opener]) >= text.count(opener)
+    if opener not in pairs:
+        return False
+    if opener == pairs[opener]:  # a straight quotation mark closes itself
+        return text.count(opener) >= 2
+    return text.count(pairs[opener]) >= text.count(opener)
 
 
 def _first(spans: Sequence[LabelledSpan], label: str) -> str | None:

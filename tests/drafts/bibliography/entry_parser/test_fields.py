@@ -70,3 +70,19 @@ def test_clean_field_strips_wrapping_but_keeps_own_brackets() -> None:
     assert clean_field("Imaging of roots (MRI).") == "Imaging of roots (MRI)"
     assert clean_field("Why soil? ") == "Why soil?"
     assert clean_field(".,;") == ""
+    assert clean_field("“Gravel” and grain.") == "“Gravel” and grain"
+
+
+def test_quoted_title_ends_with_its_quotation() -> None:
+    # MLA 9th ed. puts the title's full stop inside the quotation marks (from memory).
+    text = '"Soil Nitrate." Field Handbook. Harbourside Press, 2016.'
+    assert _decode(text, ["title"] * 4 + ["publisher"] * 2 + ["date"]).title == "Soil Nitrate"
+    inner = "“Gravel”. A history of upland farming. Harbourside, 2016."
+    assert _decode(inner, ["title"] * 6 + ["publisher", "date"]).title == "“Gravel”. A history of upland farming"
+
+
+def test_title_stops_before_in_marker() -> None:
+    # Chapters: "Title. In Editor (Ed.), Book" (APA 7th ed. §10.3, from memory).
+    text = "Okonjo, A. (2019). Soil nitrate. In: Field Methods. Harbourside."
+    labels = ["author"] * 2 + ["date"] + ["title"] * 5 + ["publisher"]
+    assert _decode(text, labels).title == "Soil nitrate"
