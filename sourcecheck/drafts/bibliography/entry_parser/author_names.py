@@ -23,7 +23,11 @@ _ROLE_RE = re.compile(
 )
 # "y", "e" and "en" only in lower case: upper-case, they are initials.
 _CONJUNCTION_RE = re.compile(r"\s+(?:(?i:and|und|et|och|og)|y|e|en)\s+|\s*&\s*")
-_INITIAL_RE = re.compile(r"^(?:[A-Z][a-z]?\.\s?[-‐]?){1,4}$|^[A-Z][-‐]?[A-Z]?$")
+_INITIAL_RE = re.compile(r"^(?:[A-Z][a-z]?\.\s?[-‐]?){0,3}[A-Z][a-z]?\.?$|^[A-Z][-‐]?[A-Z]?$")
+# "FERRIÈRES (Madeleine)", "Codou (Y.)": given names in brackets after the family name.
+_BRACKETED_GIVEN_RE = re.compile(r"\([^()]*\)")
+# Lower-case words that make a name an organisation's ("Alliance for Excellent Education").
+_FUNCTION_WORDS = frozenset({"of", "for", "on", "and", "the", "in", "to"})
 _SUFFIXES = frozenset({"jr", "sr", "ii", "iii", "iv", "jnr", "snr"})
 # Words that make a name an organisation's ("Board of Soil Science"), kept whole.
 _ORGANISATION_WORDS = frozenset(
@@ -55,6 +59,9 @@ _ORGANISATION_WORDS = frozenset(
 def family_names(span: str) -> tuple[str, ...]:
     """Family names in order; "et al." and editor or translator marks are dropped."""
     text = " ".join(_ROLE_RE.sub(" ", span).split())
+    if _BRACKETED_GIVEN_RE.search(text):  # every piece outside the brackets is a family name
+        pieces = re.split(r",", _CONJUNCTION_RE.sub(", ", _BRACKETED_GIVEN_RE.sub(" ", text)))
+        return tuple(name for piece in pieces if (name := _clean(piece.split())))
     if ";" in text:
         persons = [p for p in text.split(";") if p.strip(" .,")]
         return tuple(name for person in persons if (name := _one_person(person)))
@@ -108,13 +115,22 @@ def _family_in_piece(words: list[str]) -> str:
             return _clean(words[: initials[0]])  # "Okafor AB", "de la Rosa JC"
         rest = words[initials[-1] + 1 :]  # "A. B. Okafor", "Ada B. Okafor"
         return _clean(rest) if rest else ""
-    if len(words) >= 3 and any(w.lower().strip(".") in _ORGANISATION_WORDS for w in words):
+    if _is_organisation(words):
         return _clean(words)
     # "Ada van der Berg": from the first particle after the given name, else the last word.
     for i in range(1, len(words) - 1):
         if words[i].lower() in PARTICLES:
             return _clean(words[i:])
     return _clean(words[-1:])
+
+
+def _is_organisation(words: list[str]) -> bool:
+    """Group names: "Alliance for Excellent Education", "The Herald", "Board of Soil Science"."""
+    if len(words) < 2:
+        return False
+    if words[0].lower() == "the" or any(w in _FUNCTION_WORDS for w in words[1:-1]):
+        return True
+    return len(words) >= 3 and any(w.lower().strip(".") in _ORGANISATION_WORDS for w in words)
 
 
 def _is_initial(word: str, piece: list[str]) -> bool:

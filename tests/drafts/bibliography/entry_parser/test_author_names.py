@@ -26,6 +26,12 @@ CASES = [
     ("Marwick, T. L., & Saito, K. (Eds.).", ("Marwick", "Saito")),
     # Generational suffixes are not names (APA 7th ed. §9.8, from memory).
     ("Okonjo, A. B., Jr., & Saito, K.", ("Okonjo", "Saito")),
+    # French bibliographies: "FAMILY (Given)" (common practice, no source).
+    ("OKONJO (Ada), LINDQVIST (Carl).", ("OKONJO", "LINDQVIST")),
+    # Vancouver-like initials with full stops and no space.
+    ("Okonjo A.B., Lindqvist C.", ("Okonjo", "Lindqvist")),
+    # Group authors stay whole (APA 7th ed. §9.11, from memory).
+    ("Alliance for Soil Education.", ("Alliance for Soil Education",)),
     # A middle initial between given and family name.
     ("Okonjo, Ada and Kenji T. Saito.", ("Okonjo", "Saito")),
 ]
