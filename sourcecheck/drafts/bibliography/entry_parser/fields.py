@@ -20,7 +20,10 @@ from sourcecheck.drafts.references import find_doi
 _YEAR_RE = re.compile(r"(?<![\d/.])(?P<year>1[5-9]\d\d|20[0-4]\d)(?P<suffix>[a-z])?(?![\d/])")
 _VANCOUVER_YEAR_RE = re.compile(r"^\(?(?P<year>1[5-9]\d\d|20[0-4]\d)(?P<suffix>[a-z])?\)?\s*[;:]")
 _OPENERS = "([{“\"‘'«„<"
-_IN_MARKER_RE = re.compile(r"(?<=[.?!”\"])\s+(?:In|Dans|Im)\b:?\s+(?=\S)")
+# ". In Book", "In: Book", ", in Book": the container of a chapter or paper begins.
+_IN_MARKER_RE = re.compile(r"(?<=[.?!”\"])\s+(?:In|Dans|Im)\b:?\s+(?=\S)|,\s+in:?\s+(?=[A-Z])")
+# "Title, 1997. Journal ...": a year closing a sentence with more after it ends the title.
+_YEAR_THEN_MORE_RE = re.compile(r",\s+(?:1[5-9]|20)\d\d[a-z]?\.\s+(?=\S)")
 _QUOTE_PAIRS = {"“": "”", '"': '"', "«": "»", "„": "“"}
 _CLOSERS = ".,;:)]}”\"’'»>"
 _CONTAINER_LEAD_RE = re.compile(r"^(?:in|dans|en|im)\s*:?\s+(?=\S)", re.IGNORECASE)
@@ -136,7 +139,7 @@ def _before_in_marker(title: str | None) -> str | None:
     """A title stops before ". In" or ". In:", which opens the container of a chapter or paper."""
     if not title:
         return title
-    return _IN_MARKER_RE.split(title, maxsplit=1)[0]
+    return _YEAR_THEN_MORE_RE.split(_IN_MARKER_RE.split(title, maxsplit=1)[0], maxsplit=1)[0]
 
 
 def _text_field(text: str | None) -> str | None:

@@ -86,3 +86,12 @@ def test_title_stops_before_in_marker() -> None:
     text = "Okonjo, A. (2019). Soil nitrate. In: Field Methods. Harbourside."
     labels = ["author"] * 2 + ["date"] + ["title"] * 5 + ["publisher"]
     assert _decode(text, labels).title == "Soil nitrate"
+
+
+def test_title_stops_before_comma_in_and_before_a_closing_year() -> None:
+    # Chicago notes: "Title, in Book, ed. Editor" (CMOS 17th ed. §14.107, from memory).
+    text = "Tobias Marwick, Gravel, in Upland Essays (Portsmouth: Harbourside, 2016)."
+    labels = ["author"] * 2 + ["title"] * 4 + ["location", "publisher", "date"]
+    assert _decode(text, labels).title == "Gravel"
+    late = "Okonjo, A. Soil nitrate in plots, 1997. Soil Letters, to appear."
+    assert _decode(late, ["author"] * 2 + ["title"] * 7 + ["note"] * 2).title == "Soil nitrate in plots"
