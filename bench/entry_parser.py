@@ -116,10 +116,11 @@ def _show_error(name: str, text: str, gold: object, fields: object) -> None:
 
 def _print_tables(before: Tally, after: Tally) -> None:
     header = ["rows", "n", *FIELDS]
-    groups = after.groups()
+    groups = [g for g in after.groups() if g != DOI_FROM_SPANS]
     for name, tally in (("before (rule parser, no training)", before), ("after (CRF, 5-fold CV)", after)):
         print(name)
-        table = [header, *per_group_table(tally, groups)]
+        shown = [*groups, DOI_FROM_SPANS] if tally is after else groups
+        table = [header, *per_group_table(tally, shown)]
         widths = [max(len(row[i]) for row in table) for i in range(len(header))]
         for row in table:
             print("  " + "  ".join(cell.ljust(width) for cell, width in zip(row, widths, strict=True)))

@@ -6,8 +6,11 @@ research papers using conditional random fields") and ParsCit (Councill, Giles a
 relative position in the entry, digit shapes (years, page ranges, volume(issue)),
 initials, quotes and brackets, DOI and URL shapes, lexicon membership, and the same for
 the neighbours within two tokens. A few entry-level cues (quotes anywhere, a leading
-number) and counts of the full stops and years seen so far let one model serve styles
-that put the year first, last or in the middle.
+number), counts of the full stops and years seen so far, and flags for being inside a
+quotation or brackets or after an "In" let one model serve styles that put the year first,
+last or in the middle. Measured additions that did not help on cross-validation and were
+left out: segment-level summaries, conjunctions of the previous token's punctuation with
+the current case, and three-letter prefixes and suffixes.
 """
 
 from __future__ import annotations

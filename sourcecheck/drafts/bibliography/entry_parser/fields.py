@@ -93,9 +93,11 @@ def decode_fields(text: str, spans: Sequence[LabelledSpan]) -> EntryFields:
         container=container,
         year=year,
         year_suffix=suffix,
-        doi=find_doi(text) or find_doi(_first(spans, "doi") or ""),
-        volume=clean_field(_VOLUME_WORD_RE.sub("", volume)) or None if volume else None,
-        pages=clean_field(_PAGE_WORD_RE.sub("", pages)) or None if pages else None,
+        # By rule over the whole entry: on the labelled data the regular expression finds every
+        # DOI, the tagger's doi and url spans fewer (bench/entry_parser.py).
+        doi=find_doi(text),
+        volume=_text_field(_VOLUME_WORD_RE.sub("", volume or "")),
+        pages=_text_field(_PAGE_WORD_RE.sub("", pages or "")),
         publisher=_text_field(_first(spans, "publisher")),
         spans=tuple(spans),
     )

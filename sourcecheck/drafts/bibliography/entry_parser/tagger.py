@@ -15,7 +15,7 @@ from sourcecheck.drafts.bibliography.entry_parser.tokens import tokenize
 
 MODEL_PATH = Path(__file__).resolve().parent / "model" / "entry_parser.crfsuite"
 MAX_TOKENS = 400  # longer "entries" are cut: no reference entry runs this long
-MIN_TITLE_ODDS = 0.1  # below this, an entry without a title keeps none
+MIN_TITLE_ODDS = 0.1  # below this, an entry without a title keeps none (set by hand)
 
 
 class EntryTagger:
