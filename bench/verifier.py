@@ -34,7 +34,8 @@ if str(ROOT) not in sys.path:
     sys.path.insert(0, str(ROOT))
 
 from sourcecheck.errors import ModelUnavailable  # noqa: E402 (after the path set-up above)
-from sourcecheck.judge.verifier import LABELS, Verifier  # noqa: E402
+from sourcecheck.judge import VERIFIER_LABELS as LABELS  # noqa: E402
+from sourcecheck.judge import Verifier  # noqa: E402
 
 DEFAULT_DATA = ROOT / "bench" / "out" / "verifier"
 HELDOUT_FILES = ("cad_test.jsonl", "scifact_rationales.jsonl", "citint_claims.jsonl")

@@ -55,6 +55,11 @@ def build_parser() -> argparse.ArgumentParser:
         metavar="PATH",
         help="local sentence-transformers model folder (default: bundled MiniLM)",
     )
+    check.add_argument(
+        "--verifier",
+        metavar="PATH",
+        help="local entailment verifier folder (default: the one shipped in the package)",
+    )
     check.add_argument("--cache", type=Path, metavar="DIR", help="cache folder (default: the user cache directory)")
     check.add_argument("--bib", type=Path, metavar="FILE", help="bibliography file for the draft's citation keys")
     check.add_argument("--format-in", metavar="NAME", help="read the draft as this format, whatever its suffix")
@@ -91,6 +96,7 @@ def _run_check(args: argparse.Namespace) -> int:
             format_in=args.format_in,
             mapping=args.map,
             model=args.model,
+            verifier=args.verifier,
             cache=args.cache,
             progress=progress,
         )

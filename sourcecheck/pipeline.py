@@ -7,7 +7,8 @@ only the dataclasses of :mod:`sourcecheck.model`; bad input inside a file become
 
 from __future__ import annotations
 
-from collections.abc import Callable
+import hashlib
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 from pathlib import Path
 from typing import TypedDict, Unpack
@@ -16,9 +17,18 @@ import numpy as np
 
 from sourcecheck.claims import claim_query
 from sourcecheck.drafts import read_draft
-from sourcecheck.errors import SourcesUnreadable
+from sourcecheck.errors import ModelUnavailable, SourcesUnreadable
 from sourcecheck.index import Cache, Encoder, EvidenceIndex, Ranker, default_cache_dir, resolve_model_path, text_key
-from sourcecheck.judge import EVIDENCE_SEARCHED, Calibration, CitationJudge, Search, load_calibration
+from sourcecheck.judge import (
+    EVIDENCE_SEARCHED,
+    VERIFIER_DIR,
+    VERIFIER_FILE,
+    Calibration,
+    CitationJudge,
+    Search,
+    Verifier,
+    load_calibration,
+)
 from sourcecheck.model import (
     ClaimResult,
     Draft,
@@ -148,6 +158,8 @@ class Prepared:
     encoder: Encoder
     problems: list[Problem]
     cache: Cache
+    verifier: Verifier
+    stats: RunStats
 
 
 def prepare(
@@ -160,6 +172,7 @@ def prepare(
     progress: ProgressHook = _noop,
     stats: RunStats | None = None,
     read_options: ReadOptions | None = None,
+    verifier: str | None = None,
 ) -> Prepared:
     """Read the draft and the sources, build the index, match references, embed claims."""
     stats = stats if stats is not None else RunStats()
@@ -168,6 +181,7 @@ def prepare(
     draft = read_draft(draft_path, display=str(draft_path), options=read_options)
     cache = Cache(cache_dir if cache_dir is not None else default_cache_dir())
     encoder = Encoder(model_path)
+    reader = make_verifier(verifier)
 
     sources, source_problems = read_sources(sources_dir, cache, progress, stats)
     vectors = embed_sources(sources, encoder, cache, progress, stats)
@@ -187,6 +201,8 @@ def prepare(
         encoder=encoder,
         problems=[*draft.problems, *source_problems, *match_problems],
         cache=cache,
+        verifier=reader,
+        stats=stats,
     )
 
 
@@ -199,11 +215,52 @@ class RunOptions(TypedDict, total=False):
     progress: ProgressHook
     stats: RunStats | None
     read_options: ReadOptions | None
+    verifier: str | None
 
 
 def run(draft_path: Path, sources_dir: Path, **options: Unpack[RunOptions]) -> Report:
     """Check every cited claim of ``draft_path`` against the PDFs under ``sources_dir``."""
     return judge_all(prepare(draft_path, sources_dir, **options), draft_path, sources_dir)
+
+
+class CachedScorer:
+    """The verifier's probabilities, cached per set of pairs, so a warm run loads no model.
+
+    Keyed by the model file's hash and the pairs' text; stored (and handed back, even when
+    fresh) as float32, so a cold and a warm run judge on the very same numbers.
+    """
+
+    def __init__(self, verifier: Verifier, cache: Cache, stats: RunStats) -> None:
+        self.verifier = verifier
+        self.cache = cache
+        self.stats = stats
+        self._fingerprint: str | None = None
+
+    @property
+    def fingerprint(self) -> str:
+        if self._fingerprint is None:
+            self._fingerprint = hashlib.sha256(self.verifier.model_path.read_bytes()).hexdigest()
+        return self._fingerprint
+
+    def score(self, pairs: Sequence[tuple[str, str]]) -> np.ndarray:
+        key = text_key(self.fingerprint, *(f"{claim}\x1f{evidence}" for claim, evidence in pairs))
+        cached = self.cache.load_vectors("verdicts", key, len(pairs))
+        if cached is not None:
+            return cached.astype(np.float64)
+        fresh = np.asarray(self.verifier.score(pairs), dtype=np.float32)
+        self.cache.save_vectors("verdicts", key, fresh)
+        self.stats.pairs_verified += len(pairs)
+        return fresh.astype(np.float64)
+
+
+def make_verifier(path: str | None) -> Verifier:
+    """The shipped verifier, or the local model folder ``path`` (``--verifier``)."""
+    if path is None:
+        return Verifier(VERIFIER_DIR)
+    folder = Path(path).expanduser()
+    if not (folder / VERIFIER_FILE).is_file():
+        raise ModelUnavailable(f"{folder}: no verifier model ({VERIFIER_FILE}) in folder")
+    return Verifier(folder)
 
 
 def make_search(index: EvidenceIndex, calibration: Calibration) -> Search:
@@ -221,7 +278,7 @@ def make_search(index: EvidenceIndex, calibration: Calibration) -> Search:
 
 
 def make_checker(prepared: Prepared) -> CitationJudge:
-    """The citation judge for a prepared run, with the shipped calibration."""
+    """The citation judge for a prepared run, with the shipped calibration and verifier."""
     calibration = load_calibration()
     return CitationJudge(
         references={r.key: r for r in prepared.draft.references},
@@ -229,6 +286,7 @@ def make_checker(prepared: Prepared) -> CitationJudge:
         sources={s.path: s for s in prepared.sources},
         calibration=calibration,
         search=make_search(prepared.index, calibration),
+        scorer=CachedScorer(prepared.verifier, prepared.cache, prepared.stats),
     )
 
 

@@ -31,8 +31,10 @@ import torch
 from pair_records import ROOT, VAL, read_pairs
 from train import base_model_dir
 
-from sourcecheck.judge.verifier.encoding import INPUT_NAMES, encode_pairs, load_tokenizer
-from sourcecheck.judge.verifier.scorer import MODEL_FILE, TOKENIZER_FILE, Verifier
+from sourcecheck.judge import VERIFIER_FILE as MODEL_FILE
+from sourcecheck.judge import VERIFIER_INPUTS as INPUT_NAMES
+from sourcecheck.judge import VERIFIER_TOKENIZER as TOKENIZER_FILE
+from sourcecheck.judge import Verifier, encode_pairs, load_tokenizer
 
 MAX_BYTES = 50 * 1024 * 1024
 DEFAULT_DATA = ROOT / "bench" / "out" / "verifier"

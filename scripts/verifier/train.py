@@ -39,7 +39,7 @@ import numpy as np
 import torch
 from pair_records import LABELS, ROOT, TRAIN, VAL, Pair, read_pairs
 
-from sourcecheck.judge.verifier.encoding import encode_pairs, load_tokenizer
+from sourcecheck.judge import encode_pairs, load_tokenizer
 
 DEFAULT_DATA = ROOT / "bench" / "out" / "verifier"
 FAMILIES = ("snli", "cad", "scifact", "counterfactual", "citint")
