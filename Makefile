@@ -9,7 +9,7 @@ TORCH_SPEC ?= torch==2.13.0
 BIN := $(VENV)/bin
 STAMP := $(VENV)/.installed
 
-.PHONY: install demo test lint format bench samples clean
+.PHONY: install browser demo test lint format bench samples clean
 
 # Debian packages the tests read: WordNet 3.0 (scripts/verifier antonyms, read by nltk).
 DEBIAN_PACKAGES := wordnet-base
@@ -31,10 +31,15 @@ $(STAMP): pyproject.toml Makefile
 
 install: $(STAMP)
 
+# The HTML report's browser test drives Debian's chromium through Playwright (no browser is
+# downloaded). Installed with apt-get only where the binary is missing; CI runs as root.
+browser:
+	@command -v chromium >/dev/null 2>&1 || { apt-get update && DEBIAN_FRONTEND=noninteractive apt-get install -y chromium; }
+
 demo: $(STAMP)
 	$(BIN)/sourcecheck check sample_manuscript/draft.md --sources sample_sources
 
-test: $(STAMP) $(DEBIAN_STAMP)
+test: $(STAMP) $(DEBIAN_STAMP) browser
 	$(BIN)/ruff check sourcecheck tests bench scripts
 	$(BIN)/mypy
 	$(BIN)/python -m pytest -q

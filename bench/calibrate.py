@@ -201,8 +201,8 @@ def youden_threshold(scores: np.ndarray, positive: np.ndarray) -> float:
     return cut
 
 
-def f1_threshold(scores: np.ndarray, positive: np.ndarray) -> float:
-    """The cut that maximises F1 for the positive class."""
+def f1_threshold(scores: np.ndarray, positive: np.ndarray, beta: float = 1.0) -> float:
+    """The cut that maximises F-beta for the positive class (F1 by default; beta < 1 weighs precision)."""
     best, cut = -1.0, 0.5
     for t in np.unique(scores):
         predicted = scores >= t
@@ -210,9 +210,9 @@ def f1_threshold(scores: np.ndarray, positive: np.ndarray) -> float:
         if tp == 0:
             continue
         precision, recall = tp / predicted.sum(), tp / positive.sum()
-        f1 = 2 * precision * recall / (precision + recall)
-        if f1 > best:
-            best, cut = f1, float(t)
+        f = (1 + beta**2) * precision * recall / (beta**2 * precision + recall)
+        if f > best:
+            best, cut = f, float(t)
     return cut
 
 
@@ -287,12 +287,14 @@ def main() -> int:
     adrift_below = youden_threshold(topical_fit, related_fit)
     score_fit = np.array([provisional.score(features(p)) for p in fit])
     anchored_at = max(f1_threshold(score_fit, y_fit.astype(bool)), adrift_below)
-    # The verifier's "reads against" cut: best F1 for CONTRADICT among the fit split's
-    # SUPPORT and CONTRADICT pairs, on P(contradicts) where it beats P(supports).
+    # The verifier's "reads against" cut: best F0.5 for CONTRADICT among the fit split's
+    # SUPPORT and CONTRADICT pairs, on P(contradicts) where it beats P(supports). F0.5 weighs
+    # precision twice: a false "conflict" on a faithful claim costs a reader more than a
+    # missed one, which the fitted score still marks down.
     opposed = [p for p in fit if p.label in ("SUPPORT", "CONTRADICT")]
     readings = [features(p) for p in opposed]
     against = np.array([f.contradict if f.contradict > f.entail else 0.0 for f in readings])
-    contradict_at = max(f1_threshold(against, np.array([p.label == "CONTRADICT" for p in opposed])), 0.5)
+    contradict_at = max(f1_threshold(against, np.array([p.label == "CONTRADICT" for p in opposed]), beta=0.5), 0.5)
     calibration = Calibration(tuple(weights), bias, anchored_at, adrift_below, "fit", contradict_at=contradict_at)
     print("\nweights:", dict(zip(FEATURE_NAMES, np.round(weights, 3), strict=True)), "bias:", round(bias, 3))
     print(

@@ -15,8 +15,9 @@ the cited passage, and the author's and the editor's judgment decides.
 
 from __future__ import annotations
 
-from sourcecheck.api import Progress, check
+from sourcecheck.api import Progress, check, check_many
 from sourcecheck.errors import SourcecheckError
+from sourcecheck.limits import Limits
 from sourcecheck.model import (
     Band,
     Check,
@@ -41,6 +42,7 @@ __all__ = [
     "Claim",
     "ClaimResult",
     "Evidence",
+    "Limits",
     "Problem",
     "Progress",
     "ReadOptions",
@@ -51,4 +53,5 @@ __all__ = [
     "SourcecheckError",
     "__version__",
     "check",
+    "check_many",
 ]

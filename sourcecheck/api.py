@@ -8,10 +8,11 @@ sourcecheck`` stays cheap (no PDF, Word or model libraries loaded).
 from __future__ import annotations
 
 import os
-from collections.abc import Callable
+from collections.abc import Callable, Sequence
 from pathlib import Path
 
-from sourcecheck.model import ReadOptions, Report, RunStats
+from sourcecheck.limits import Limits
+from sourcecheck.model import Problem, ReadOptions, Report, RunStats
 
 #: Called as ``progress(stage, done, total)`` while sources are read and embedded.
 Progress = Callable[[str, int, int], None]
@@ -33,6 +34,8 @@ def check(
     cache: str | os.PathLike[str] | None = None,
     progress: Progress | None = None,
     stats: RunStats | None = None,
+    limits: Limits | None = None,
+    follow_links: bool = False,
 ) -> Report:
     """Check every cited claim of ``draft`` against the PDFs under ``sources``.
 
@@ -47,15 +50,62 @@ def check(
         cache: where passages and vectors are cached (default: the user cache directory).
         progress: called as ``progress(stage, done, total)`` while sources are read and embedded.
         stats: counters of what the run cost, filled in as it goes.
+        limits: how much of each file is read (``sourcecheck.Limits``; the defaults when None).
+        follow_links: read source PDFs that are symbolic links to files outside ``sources``.
+
+    Checks a person accepted (the review file beside the draft, or an ignore comment in
+    it) come back with ``Check.reviewed`` set; an accepted check whose fingerprint no
+    longer holds is a ``Problem`` naming the review file.
 
     Raises:
-        SourcecheckError: the draft, the sources folder, the mapping or the model cannot be
-            opened. Anything wrong inside a file is a ``Problem`` in ``Report.problems``.
+        SourcecheckError: the draft, the sources folder, the mapping, the review file or the
+            model cannot be opened. Anything wrong inside a file is a ``Problem`` in ``Report.problems``.
     """
-    from sourcecheck.pipeline import run
+    return check_many(
+        [draft],
+        sources,
+        bib=bib,
+        format_in=format_in,
+        mapping=mapping,
+        model=model,
+        verifier=verifier,
+        cache=cache,
+        progress=progress,
+        stats=stats,
+        limits=limits,
+        follow_links=follow_links,
+    )[0]
 
-    return run(
-        Path(draft),
+
+def check_many(
+    drafts: Sequence[str | os.PathLike[str]],
+    sources: str | os.PathLike[str],
+    *,
+    bib: str | os.PathLike[str] | None = None,
+    format_in: str | None = None,
+    mapping: str | os.PathLike[str] | None = None,
+    model: str | None = None,
+    verifier: str | os.PathLike[str] | None = None,
+    cache: str | os.PathLike[str] | None = None,
+    progress: Progress | None = None,
+    stats: RunStats | None = None,
+    limits: Limits | None = None,
+    follow_links: bool = False,
+) -> list[Report]:
+    """Check several drafts against one folder of sources, in order; one report per draft.
+
+    The sources are read, embedded and indexed once for all of them, which is what an
+    editor screening a batch of submissions against one library needs. The options are
+    those of :func:`check`; ``bib`` and ``format_in`` apply to every draft.
+
+    Raises:
+        SourcecheckError: a draft, the sources folder, the mapping or the model cannot be opened.
+    """
+    from sourcecheck.pipeline import run_many
+
+    paths = [Path(d) for d in drafts]
+    reports = run_many(
+        paths,
         Path(sources),
         mapping=Path(mapping) if mapping is not None else None,
         model=model,
@@ -63,5 +113,26 @@ def check(
         cache_dir=Path(cache) if cache is not None else None,
         progress=progress or _quiet,
         stats=stats,
-        read_options=ReadOptions(bibliography=Path(bib) if bib is not None else None, format=format_in),
+        read_options=ReadOptions(
+            bibliography=Path(bib) if bib is not None else None, format=format_in, limits=limits or Limits()
+        ),
+        follow_links=follow_links,
     )
+    for path, report in zip(paths, reports, strict=True):
+        _apply_review_state(path, report)
+    return reports
+
+
+def _apply_review_state(draft: Path, report: Report) -> None:
+    """Mark the checks a person accepted (review file, ignore comments); an entry that no longer holds is a problem."""
+    from sourcecheck.workflow import apply_reviews, load_reviews, review_path
+
+    file = review_path(draft)
+    for stale in apply_reviews(report, load_reviews(file)):
+        report.problems.append(
+            Problem(
+                str(file),
+                f"the accepted check {stale.claim} {stale.citation} no longer holds "
+                "(its claim, reference or evidence changed); it is shown and counted again",
+            )
+        )

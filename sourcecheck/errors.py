@@ -4,7 +4,8 @@
     ├── DraftUnreadable         the draft file is missing, a folder, or cannot be opened
     ├── SourcesUnreadable       the --sources folder is missing or not a folder
     ├── MappingError            the --map file is missing or malformed
-    └── ModelUnavailable        the embedding model folder is missing or will not load
+    ├── ModelUnavailable        the embedding model folder is missing or will not load
+    └── SettingsError           a configuration or review file is malformed, or an asked-for claim is not there
 
 Bad content inside an otherwise readable file (a broken PDF, a marker with no entry) is
 never an exception past its stage: it becomes a :class:`sourcecheck.model.Problem`.
@@ -31,3 +32,7 @@ class MappingError(SourcecheckError):
 
 class ModelUnavailable(SourcecheckError):
     """The embedding model cannot be loaded from local disk."""
+
+
+class SettingsError(SourcecheckError):
+    """A configuration or review file cannot be read, or a review names a claim the draft lacks."""

@@ -12,6 +12,8 @@ from dataclasses import dataclass, field
 from enum import StrEnum
 from pathlib import Path
 
+from sourcecheck.limits import Limits
+
 
 @dataclass(frozen=True)
 class Problem:
@@ -71,6 +73,12 @@ class Claim:
     line: int
     citations: tuple[Citation, ...]
     file: str | None = None  # the file the sentence is in, when not the draft itself (LaTeX \input)
+    #: What ``line`` counts: "line" for text formats, "paragraph" for Word, whose reader
+    #: numbers paragraphs because a .docx has no lines a person could find.
+    unit: str = "line"
+    #: The author marked the sentence with an ignore comment in the draft's own comment
+    #: syntax (``<!-- sourcecheck: ignore -->``, ``% sourcecheck: ignore``).
+    ignored: bool = False
 
 
 @dataclass
@@ -115,6 +123,25 @@ class Passage:
 SECTION_ROLES = ("abstract", "background", "methods", "results", "discussion", "conclusions", "back-matter")
 
 
+@dataclass(frozen=True)
+class SourceIdentity:
+    """What a source PDF shows of its own identity, read from the file (sources/_identity.py).
+
+    ``title`` is the first page's title as typeset (the largest type near the top; page 2
+    when page 1 is a publisher's cover, then ``title_page`` is 2); ``metadata_title`` the
+    document's own title field, kept only when the title page shows it; ``dois`` and
+    ``arxiv_ids`` every identifier printed on the first pages; ``authors`` the first names
+    as printed under the title ("Robert W Aldridge").
+    """
+
+    title: str | None = None
+    metadata_title: str | None = None
+    dois: tuple[str, ...] = ()
+    arxiv_ids: tuple[str, ...] = ()
+    authors: tuple[str, ...] = ()
+    title_page: int = 1
+
+
 @dataclass
 class Source:
     """One readable source PDF: its identity, what can match it to a reference, and its passages."""
@@ -130,6 +157,8 @@ class Source:
     #: The page number printed on each PDF page ("305"), None where none could be read;
     #: one entry per PDF page, or empty when the document shows no consistent numbering.
     printed_pages: tuple[str | None, ...] = ()
+    #: What the file says it is, for matching references to it.
+    identity: SourceIdentity = field(default_factory=SourceIdentity)
 
 
 # --- matching (reference -> source) ----------------------------------------------------
@@ -142,6 +171,8 @@ class MatchMethod(StrEnum):
     DOI = "doi"
     TITLE = "title"
     AUTHOR_YEAR = "author-year"
+    ARXIV = "arxiv"
+    TITLE_IN_ENTRY = "title-in-entry"  # the source's title found inside the entry's text
 
 
 @dataclass(frozen=True)
@@ -152,6 +183,20 @@ class SourceMatch:
     source: str
     method: MatchMethod
     similarity: float = 1.0
+    #: How sure the match is, 0..1, from all the evidence together (sources/_match.py).
+    confidence: float = 1.0
+    #: The evidence in words ("doi on page 1; title found in the entry (97)").
+    detail: str = ""
+
+
+@dataclass(frozen=True)
+class MatchRefusal:
+    """Why a reference entry got no source: the closest file and what kept it out."""
+
+    key: str
+    candidate: str | None
+    reason: str
+    confidence: float = 0.0
 
 
 # --- index stage -----------------------------------------------------------------------
@@ -186,6 +231,11 @@ class Band(StrEnum):
     UNVERIFIABLE = "unverifiable"
 
 
+#: The bands from least to most severe, as ``--fail-on`` and the batch summary order them
+#: (a design choice, no source; reasons in sourcecheck/workflow/gate.py).
+BAND_SEVERITY: tuple[Band, ...] = (Band.ANCHORED, Band.LOOSE, Band.UNVERIFIABLE, Band.ADRIFT, Band.CONFLICT)
+
+
 @dataclass(frozen=True)
 class Reason:
     """A machine-readable code with the sentence a person reads."""
@@ -206,6 +256,21 @@ class Evidence:
     section: str = ""  # the role of the section it stands in (SECTION_ROLES), "" when unknown
 
 
+@dataclass(frozen=True)
+class Review:
+    """A person's word that one check was read and accepted, so gates and reports pass over it.
+
+    ``origin`` is "review-file" (accepted with ``sourcecheck review accept``, kept in the
+    file beside the draft while ``fingerprint`` still holds) or "ignore-comment" (marked in
+    the draft itself). The tool still shows the check; it only stops counting it.
+    """
+
+    note: str
+    origin: str
+    fingerprint: str = ""
+    accepted_on: str = ""
+
+
 @dataclass
 class Check:
     """One claim checked against one cited work."""
@@ -217,6 +282,7 @@ class Check:
     score: float
     reasons: list[Reason] = field(default_factory=list)
     evidence: list[Evidence] = field(default_factory=list)
+    reviewed: Review | None = None
 
 
 @dataclass
@@ -235,11 +301,13 @@ class ReadOptions:
     """What the user told us about the draft beyond its path.
 
     ``bibliography`` is ``--bib`` (a .bib, .bbl, CSL-JSON or RIS file); ``format`` is
-    ``--format-in``, which overrides the guess from the file's suffix.
+    ``--format-in``, which overrides the guess from the file's suffix; ``limits`` bounds
+    what is read of a stranger's file (:mod:`sourcecheck.limits`).
     """
 
     bibliography: Path | None = None
     format: str | None = None
+    limits: Limits = field(default_factory=Limits)
 
 
 @dataclass
@@ -280,6 +348,8 @@ class Report:
     matches: dict[str, SourceMatch]
     unused_sources: list[str]
     problems: list[Problem]
+    #: For unmatched references: the closest source file and why it was refused.
+    refusals: dict[str, MatchRefusal] = field(default_factory=dict)
 
     def cited_keys(self) -> set[str]:
         """Reference keys that at least one citation in the text resolves to."""

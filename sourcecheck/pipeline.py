@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import hashlib
 from collections.abc import Callable, Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from pathlib import Path
 from typing import TypedDict, Unpack
 
@@ -29,10 +29,12 @@ from sourcecheck.judge import (
     Verifier,
     load_calibration,
 )
+from sourcecheck.limits import Limits
 from sourcecheck.model import (
     ClaimResult,
     Draft,
     Hit,
+    MatchRefusal,
     ModelInfo,
     Passage,
     Problem,
@@ -44,10 +46,10 @@ from sourcecheck.model import (
 )
 from sourcecheck.sources import (
     EXTRACTOR_VERSION,
-    discover_pdfs,
     file_sha256,
+    find_pdfs,
     load_mapping,
-    match_references,
+    match_sources,
     read_source,
 )
 
@@ -64,16 +66,21 @@ def _display(root_arg: Path, pdf: Path, root: Path) -> str:
 
 
 def read_sources(
-    folder: Path, cache: Cache, progress: ProgressHook, stats: RunStats
+    folder: Path,
+    cache: Cache,
+    progress: ProgressHook,
+    stats: RunStats,
+    limits: Limits | None = None,
+    follow_links: bool = False,
 ) -> tuple[list[Source], list[Problem]]:
     """Every readable PDF under ``folder``, from the cache where its content is known."""
     if not folder.is_dir():
         raise SourcesUnreadable(
             f"{folder}: sources folder not found" if not folder.exists() else f"{folder}: not a folder"
         )
-    pdfs = discover_pdfs(folder)
+    limits = limits or Limits()
+    pdfs, problems = find_pdfs(folder, follow_links=follow_links, limits=limits)
     sources: list[Source] = []
-    problems: list[Problem] = []
     for done, pdf in enumerate(pdfs, start=1):
         display = _display(folder, pdf, folder)
         try:
@@ -86,12 +93,15 @@ def read_sources(
             sources.append(cached)
             stats.sources_from_cache += 1
         else:
-            result = read_source(pdf, display, sha256=sha)
+            notes: list[Problem] = []
+            result = read_source(pdf, display, sha256=sha, limits=limits, notes=notes)
+            problems.extend(notes)
             if isinstance(result, Problem):
                 problems.append(result)
             else:
                 sources.append(result)
-                cache.save_source(result, EXTRACTOR_VERSION)
+                if not notes:  # a source read only in part is not what its content hash promises
+                    cache.save_source(result, EXTRACTOR_VERSION)
                 stats.sources_read += 1
         progress("read", done, len(pdfs))
     return sources, problems
@@ -158,8 +168,91 @@ class Prepared:
     encoder: Encoder
     problems: list[Problem]
     cache: Cache
+    #: Why each unmatched reference has no source: its closest file and what kept it out.
+    refusals: dict[str, MatchRefusal] = field(default_factory=dict)
+    verifier: Verifier | None = None
+    stats: RunStats = field(default_factory=RunStats)
+
+
+@dataclass
+class PreparedSources:
+    """The sources folder read, embedded and indexed once: what every draft of a run shares.
+
+    Split from :func:`prepare` so several manuscripts are checked against one folder with
+    one index and one cache, reading and embedding each PDF once (:func:`run_many`).
+    """
+
+    folder: Path
+    sources: list[Source]
+    index: EvidenceIndex
+    encoder: Encoder
+    cache: Cache
+    mapping: dict[str, str] | None
+    problems: list[Problem]
     verifier: Verifier
-    stats: RunStats
+
+
+def prepare_sources(
+    sources_dir: Path,
+    *,
+    mapping: Path | None = None,
+    model: str | None = None,
+    cache_dir: Path | None = None,
+    progress: ProgressHook = _noop,
+    stats: RunStats | None = None,
+    limits: Limits | None = None,
+    follow_links: bool = False,
+    verifier: str | None = None,
+) -> PreparedSources:
+    """Read every PDF under ``sources_dir`` (from the cache where known), embed and index the passages."""
+    stats = stats if stats is not None else RunStats()
+    model_path = resolve_model_path(model)
+    mapping_table = load_mapping(mapping) if mapping is not None else None
+    cache = Cache(cache_dir if cache_dir is not None else default_cache_dir())
+    encoder = Encoder(model_path)
+    reader = make_verifier(verifier)
+    sources, source_problems = read_sources(
+        sources_dir, cache, progress, stats, limits=limits, follow_links=follow_links
+    )
+    vectors = embed_sources(sources, encoder, cache, progress, stats)
+    passages: list[Passage] = [p for s in sources for p in s.passages]
+    return PreparedSources(
+        folder=sources_dir,
+        sources=sources,
+        index=EvidenceIndex(passages, vectors),
+        encoder=encoder,
+        cache=cache,
+        mapping=mapping_table,
+        problems=source_problems,
+        verifier=reader,
+    )
+
+
+def prepare_draft(draft: Draft, shared: PreparedSources, stats: RunStats | None = None) -> Prepared:
+    """Match one draft's references to the prepared sources and embed its claims."""
+    stats = stats if stats is not None else RunStats()
+    matched = match_sources(
+        draft.references, shared.sources, shared.mapping, sources_root=str(shared.folder), draft=draft.path
+    )
+    cited = {c.key for claim in draft.claims for c in claim.citations if c.key}
+    match_problems = [*matched.problems, *(p for key, p in matched.unmatched.items() if key in cited)]
+    queries = [claim_query(c) for c in draft.claims]
+    claim_vectors = embed_claims(queries, shared.encoder, shared.cache, stats)
+    stats.model_loaded = shared.encoder.loaded
+    return Prepared(
+        draft=draft,
+        sources=shared.sources,
+        index=shared.index,
+        matches=matched.matches,
+        refusals=matched.refusals,
+        queries=queries,
+        claim_vectors=claim_vectors,
+        encoder=shared.encoder,
+        problems=[*draft.problems, *shared.problems, *match_problems],
+        cache=shared.cache,
+        verifier=shared.verifier,
+        stats=stats,
+    )
 
 
 def prepare(
@@ -172,38 +265,30 @@ def prepare(
     progress: ProgressHook = _noop,
     stats: RunStats | None = None,
     read_options: ReadOptions | None = None,
+    follow_links: bool = False,
     verifier: str | None = None,
 ) -> Prepared:
-    """Read the draft and the sources, build the index, match references, embed claims."""
-    stats = stats if stats is not None else RunStats()
-    model_path = resolve_model_path(model)
-    mapping_table = load_mapping(mapping) if mapping is not None else None
-    draft = read_draft(draft_path, display=str(draft_path), options=read_options)
-    cache = Cache(cache_dir if cache_dir is not None else default_cache_dir())
-    encoder = Encoder(model_path)
-    reader = make_verifier(verifier)
+    """Read the draft and the sources, build the index, match references, embed claims.
 
-    sources, source_problems = read_sources(sources_dir, cache, progress, stats)
-    vectors = embed_sources(sources, encoder, cache, progress, stats)
-    passages: list[Passage] = [p for s in sources for p in s.passages]
-    index = EvidenceIndex(passages, vectors)
-    matches, match_problems = match_references(draft.references, sources, mapping_table, sources_root=str(sources_dir))
-    queries = [claim_query(c) for c in draft.claims]
-    claim_vectors = embed_claims(queries, encoder, cache, stats)
-    stats.model_loaded = encoder.loaded
-    return Prepared(
-        draft=draft,
-        sources=sources,
-        index=index,
-        matches=matches,
-        queries=queries,
-        claim_vectors=claim_vectors,
-        encoder=encoder,
-        problems=[*draft.problems, *source_problems, *match_problems],
-        cache=cache,
-        verifier=reader,
+    ``read_options.limits`` bounds the draft and the sources alike; ``follow_links`` reads
+    PDFs that are links to files outside ``sources_dir``.
+    """
+    stats = stats if stats is not None else RunStats()
+    read_options = read_options or ReadOptions()
+    resolve_model_path(model)  # a missing model stops the run before any file is read
+    draft = read_draft(draft_path, display=str(draft_path), options=read_options)
+    shared = prepare_sources(
+        sources_dir,
+        mapping=mapping,
+        model=model,
+        cache_dir=cache_dir,
+        progress=progress,
         stats=stats,
+        limits=read_options.limits,
+        follow_links=follow_links,
+        verifier=verifier,
     )
+    return prepare_draft(draft, shared, stats)
 
 
 class RunOptions(TypedDict, total=False):
@@ -215,12 +300,40 @@ class RunOptions(TypedDict, total=False):
     progress: ProgressHook
     stats: RunStats | None
     read_options: ReadOptions | None
+    follow_links: bool
     verifier: str | None
 
 
 def run(draft_path: Path, sources_dir: Path, **options: Unpack[RunOptions]) -> Report:
     """Check every cited claim of ``draft_path`` against the PDFs under ``sources_dir``."""
     return judge_all(prepare(draft_path, sources_dir, **options), draft_path, sources_dir)
+
+
+def run_many(draft_paths: list[Path], sources_dir: Path, **options: Unpack[RunOptions]) -> list[Report]:
+    """Check several drafts against one sources folder: the PDFs are read, embedded and indexed once.
+
+    Every draft is read first, so a missing one stops the run before any PDF is read.
+    """
+    stats = options.get("stats")
+    stats = stats if stats is not None else RunStats()
+    read_options = options.get("read_options")
+    resolve_model_path(options.get("model"))
+    drafts = [read_draft(path, display=str(path), options=read_options) for path in draft_paths]
+    shared = prepare_sources(
+        sources_dir,
+        mapping=options.get("mapping"),
+        model=options.get("model"),
+        cache_dir=options.get("cache_dir"),
+        progress=options.get("progress", _noop),
+        stats=stats,
+        limits=read_options.limits if read_options is not None else None,
+        follow_links=options.get("follow_links", False),
+        verifier=options.get("verifier"),
+    )
+    return [
+        judge_all(prepare_draft(draft, shared, stats), path, sources_dir)
+        for draft, path in zip(drafts, draft_paths, strict=True)
+    ]
 
 
 class CachedScorer:
@@ -278,7 +391,7 @@ def make_search(index: EvidenceIndex, calibration: Calibration) -> Search:
 
 
 def make_checker(prepared: Prepared) -> CitationJudge:
-    """The citation judge for a prepared run, with the shipped calibration and verifier."""
+    """The citation judge for a prepared run, with the shipped calibration."""
     calibration = load_calibration()
     return CitationJudge(
         references={r.key: r for r in prepared.draft.references},
@@ -286,7 +399,7 @@ def make_checker(prepared: Prepared) -> CitationJudge:
         sources={s.path: s for s in prepared.sources},
         calibration=calibration,
         search=make_search(prepared.index, calibration),
-        scorer=CachedScorer(prepared.verifier, prepared.cache, prepared.stats),
+        scorer=CachedScorer(prepared.verifier, prepared.cache, prepared.stats) if prepared.verifier else None,
     )
 
 
@@ -306,5 +419,6 @@ def judge_all(prepared: Prepared, draft_path: Path, sources_dir: Path) -> Report
         references=draft.references,
         matches=prepared.matches,
         unused_sources=unused_sources(prepared.sources, draft, prepared.matches),
+        refusals=prepared.refusals,
         problems=[*prepared.problems, *cache_problems],
     )

@@ -7,6 +7,7 @@ extractors read back exactly what was written, ligature glyphs (U+FB01 "ﬁ") an
 Builders:
     build_pdf            pages of text blocks, optional running header/footer, metadata
     paper_pdf            a one-call "article": title, authors, DOI line, body, reference list
+    typeset_pdf          pages of (font size, text) lines: a title in large type, a cover page
     two_column_pdf       one page whose text is set in two columns
     encrypted_pdf        a text PDF locked with a user password (fpdf2 ``set_encryption``)
     image_only_pdf       pages that carry a raster image and no text layer
@@ -170,6 +171,23 @@ def paper_pdf(
         title=metadata_title,
         author=metadata_author,
     )
+
+
+def typeset_pdf(path: Path, pages: Sequence[Sequence[tuple[int, str]]], *, title: str | None = None) -> Path:
+    """One PDF page per item; each line is (font size in points, text), wrapped to the page.
+
+    For tests of what the layout says, such as which line is set in the largest type.
+    """
+    pdf = _Pdf()
+    _set_metadata(pdf, title, None, None, None)
+    for lines in pages:
+        pdf.add_page()
+        for size, text in lines:
+            pdf.set_font(FONT, size=size)
+            pdf.multi_cell(0, size * 0.5, text, align="L", new_x="LMARGIN", new_y="NEXT")
+            pdf.ln(2)
+    pdf.output(str(path))
+    return path
 
 
 def two_column_pdf(path: Path, left: Sequence[str], right: Sequence[str]) -> Path:

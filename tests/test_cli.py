@@ -11,6 +11,8 @@ import pytest
 
 from sourcecheck.cli import EXIT_INPUT, EXIT_OK, main
 from sourcecheck.reports import CAUTION
+from tests import cli_run
+from tests.cli_run import run_cli
 from tests.pdf_fixtures import encrypted_pdf, image_only_pdf, write_not_a_pdf, write_truncated_pdf
 from tests.test_pipeline import planted_rows
 
@@ -20,18 +22,8 @@ BANDS = ("anchored", "loose", "conflict", "adrift", "unverifiable")
 SOURCES = ROOT / "sample_sources"
 
 
-@pytest.fixture(scope="module")
-def cache(tmp_path_factory: pytest.TempPathFactory) -> Path:
-    """A cache warmed once on the demo, so each CLI test below runs without the model."""
-    folder = tmp_path_factory.mktemp("cli-cache")
-    assert main(["check", str(DRAFT), "--sources", str(SOURCES), "--cache", str(folder), "--quiet"]) == EXIT_OK
-    return folder
-
-
-def _run(capsys: pytest.CaptureFixture[str], *args: str) -> tuple[int, str, str]:
-    code = main(list(args))
-    out, err = capsys.readouterr()
-    return code, out, err
+cache = cli_run.cache  # a cache warmed once on the demo, so each CLI test below runs without the model
+_run = run_cli
 
 
 def test_json_report_to_stdout_follows_the_contract(cache: Path, capsys: pytest.CaptureFixture[str]) -> None:
@@ -186,3 +178,34 @@ def test_draft_without_citations_or_references_is_reported(
     assert code == EXIT_OK
     assert needle in err and "Traceback" not in err
     assert any(needle in p["message"] for p in json.loads(out)["problems"])
+
+
+def test_references_show_how_sure_each_match_is(cache: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    code, out, err = _run(
+        capsys, "check", str(DRAFT), "--sources", str(SOURCES), "--cache", str(cache), "--format", "json"
+    )
+    refs = {r["key"]: r for r in json.loads(out)["references"]}
+    assert code == EXIT_OK
+    assert refs["1"]["matched_by"] == "doi" and refs["1"]["confidence"] > 0.99 and "DOI" in refs["1"]["match_detail"]
+    # Reference 7 of the demo has no PDF: the closest file is named, with the reason, once.
+    assert refs["7"]["source"] is None and refs["7"]["closest_source"].endswith(".pdf")
+    assert refs["7"]["refused_because"] and err.count("reference '7' matched no source file") == 1
+
+
+def test_sources_folder_without_a_readable_pdf_is_one_line(
+    cache: Path, tmp_path: Path, capsys: pytest.CaptureFixture[str]
+) -> None:
+    folder = tmp_path / "sources"
+    folder.mkdir()
+    write_not_a_pdf(folder / "notes.pdf")
+    code, out, err = _run(
+        capsys, "check", str(DRAFT), "--sources", str(folder), "--cache", str(cache), "--format", "json"
+    )
+    data = json.loads(out)
+    assert code == EXIT_OK
+    lines = [p for p in data["problems"] if "no readable PDF" in p["message"]]
+    assert lines == [
+        {"file": str(folder), "message": "the sources folder holds no readable PDF; no reference can match"}
+    ]
+    assert all(r["source"] is None and r["closest_source"] is None for r in data["references"])
+    assert "Traceback" not in err

@@ -30,6 +30,7 @@ def planted_rows() -> list[dict[str, str]]:
             rows.append(
                 {
                     "snippet": cells[1].strip("`"),
+                    "line": cells[2],
                     "citation": cells[3],
                     "band": cells[4],
                     "reason": cells[5],
@@ -122,7 +123,9 @@ def test_loose_ends_are_reported(cold) -> None:
     assert [Path(p).name for p in report.unused_sources] == ["moss-recovery-after-burning.pdf"]
     assert [r.key for r in report.uncited_references()] == ["8"]
     assert [r.key for r in report.unmatched_references()] == ["7"]
-    assert report.problems == []
+    # The one cited reference without a file gets one line, naming its closest file.
+    assert [p.message.split(":")[0] for p in report.problems] == ["reference '7' matched no source file"]
+    assert report.refusals["7"].candidate is not None and report.refusals["7"].candidate in report.problems[0].message
 
 
 def test_evidence_is_short_and_paged(cold) -> None:

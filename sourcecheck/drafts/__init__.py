@@ -10,6 +10,7 @@ from __future__ import annotations
 from collections.abc import Callable
 from pathlib import Path
 
+from sourcecheck.drafts.ignore import mark_ignored
 from sourcecheck.drafts.latex import read_latex
 from sourcecheck.drafts.markdown import read_markdown
 from sourcecheck.drafts.pdf import read_pdf_manuscript
@@ -65,19 +66,19 @@ def read_draft(path: Path, display: str | None = None, options: ReadOptions | No
     options = options or ReadOptions()
     name = display or str(path)
     path = Path(path)
-    read_bytes(path, name)  # fail early, and the same way for every format, on a missing file
+    read_bytes(path, name, options.limits.file_bytes)  # fail early, the same way for every format
     notes: list[Problem] = []
     if options.format is not None:
         if options.format not in READERS:
             known = ", ".join(sorted(READERS))
             raise DraftUnreadable(f"{name}: --format-in {options.format!r} is not one of {known}")
-        reader = READERS[options.format]
+        format_name = options.format
     else:
         suffix = path.suffix.lower()
-        reader = READERS.get(FORMATS.get(suffix, ""), _read_markdown_file)
+        format_name = FORMATS.get(suffix, "markdown")
         if suffix not in FORMATS:
             what = f"'{suffix}'" if suffix else "without a suffix"
             notes.append(Problem(name, f"draft format {what} is not known; read as plain text"))
-    draft = reader(path, name, options)
+    draft = READERS[format_name](path, name, options)
     draft.problems.extend(notes)
-    return draft
+    return mark_ignored(draft, path, name, format_name)

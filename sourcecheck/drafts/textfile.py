@@ -10,6 +10,7 @@ import codecs
 from pathlib import Path
 
 from sourcecheck.errors import DraftUnreadable
+from sourcecheck.limits import size_text
 from sourcecheck.model import Problem
 
 _BOMS: tuple[tuple[bytes, str], ...] = (
@@ -20,13 +21,20 @@ _BOMS: tuple[tuple[bytes, str], ...] = (
 )
 
 
-def read_bytes(path: Path, display: str) -> bytes:
-    """The file's bytes, or DraftUnreadable with one line naming the file."""
+def read_bytes(path: Path, display: str, max_bytes: int | None = None) -> bytes:
+    """The file's bytes, or DraftUnreadable with one line naming the file.
+
+    A file over ``max_bytes`` (the file size limit) is refused before it is read.
+    """
     try:
         if not path.exists():
             raise DraftUnreadable(f"{display}: no such file")
         if path.is_dir():
             raise DraftUnreadable(f"{display}: is a folder, not a draft file")
+        size = path.stat().st_size
+        if max_bytes is not None and size > max_bytes:
+            limit = f"over the limit of {size_text(max_bytes)} (file_bytes)"
+            raise DraftUnreadable(f"{display}: {size_text(size)}, {limit}; not read")
         return path.read_bytes()
     except OSError as error:
         reason = error.strerror or error.__class__.__name__

@@ -21,10 +21,8 @@ from pathlib import Path
 import numpy as np
 import platformdirs
 
-from sourcecheck.model import Passage, Source
-
-#: Version of the entry layout; 2 added ``printed_pages``. Older entries are rebuilt.
-FORMAT = 2
+from sourcecheck.index.entries import FORMAT, MAX_ENTRY_BYTES, load_npy, no_constant, source_from_entry
+from sourcecheck.model import Source
 
 
 def default_cache_dir() -> Path:
@@ -62,6 +60,7 @@ class Cache:
         self.root = root
         self.warnings: list[str] = []
         self.vectors_written = 0
+        self.writable = True
 
     # passages ------------------------------------------------------------------------
 
@@ -69,38 +68,21 @@ class Cache:
         return self.root / "sources" / f"{sha256}-{extractor}.json"
 
     def load_source(self, sha256: str, extractor: str, display: str) -> Source | None:
-        """The cached extraction of this content, relabelled with today's display path."""
+        """The cached extraction of this content, relabelled with today's display path.
+
+        The entry is checked field by field before it is used: a cache folder can be
+        written by anyone who can write the user's files, so an entry is input like any other.
+        """
         path = self._source_file(sha256, extractor)
         if not path.is_file():
             return None
         try:
-            data = json.loads(path.read_text(encoding="utf-8"))
-            if data.get("format") != FORMAT or data["sha256"] != sha256:
-                raise ValueError("unexpected format")
-            passages = [
-                Passage(
-                    source=display,
-                    page=int(p["page"]),
-                    text=str(p["text"]),
-                    ordinal=int(p["ordinal"]),
-                    section=str(p.get("section", "")),
-                    place=float(p.get("place", 0.0)),
-                )
-                for p in data["passages"]
-            ]
-            return Source(
-                path=display,
-                sha256=sha256,
-                pages=int(data["pages"]),
-                title=data["title"],
-                doi=data["doi"],
-                first_page_text=str(data["first_page_text"]),
-                passages=passages,
-                author=data.get("author"),
-                printed_pages=tuple(None if label is None else str(label) for label in data["printed_pages"]),
-            )
-        except (OSError, ValueError, KeyError, TypeError) as exc:
-            self.warnings.append(f"cache entry {path.name} was unreadable ({exc}); rebuilt")
+            if path.stat().st_size > MAX_ENTRY_BYTES:
+                raise ValueError(f"larger than {MAX_ENTRY_BYTES >> 20} MiB")
+            data = json.loads(path.read_text(encoding="utf-8"), parse_constant=no_constant)
+            return source_from_entry(data, sha256, display)
+        except (OSError, ValueError, KeyError, TypeError, RecursionError, UnicodeDecodeError) as exc:
+            self._rebuilt(path.name, exc)
             return None
 
     def save_source(self, source: Source, extractor: str) -> None:
@@ -111,7 +93,7 @@ class Cache:
             del passage["source"]
         del data["path"]
         payload = json.dumps(data, ensure_ascii=False).encode("utf-8")
-        _atomic_write(self._source_file(source.sha256, extractor), payload)
+        self._write(self._source_file(source.sha256, extractor), payload)
 
     # vectors -------------------------------------------------------------------------
 
@@ -119,17 +101,22 @@ class Cache:
         return self.root / kind / f"{key}.npy"
 
     def load_vectors(self, kind: str, key: str, rows: int) -> np.ndarray | None:
-        """Cached vectors for ``key`` if present and of the expected row count."""
+        """Cached vectors for ``key`` if present and of the expected row count.
+
+        The ``.npy`` header is read and checked (2-D float32, the expected rows, a width
+        an embedding can have, a data size that matches the file) before any array is
+        allocated: a crafted header may ask for terabytes.
+        """
         path = self._vector_file(kind, key)
         if not path.is_file():
             return None
         try:
-            array = np.load(path, allow_pickle=False)
-            if array.ndim != 2 or array.shape[0] != rows or not np.isfinite(array).all():
-                raise ValueError(f"shape {array.shape}, expected {rows} rows")
+            array = load_npy(path, rows)
+            if not np.isfinite(array).all():
+                raise ValueError("values that are not finite")
             return array
         except (OSError, ValueError, EOFError) as exc:
-            self.warnings.append(f"cache entry {kind}/{path.name} was unreadable ({exc}); rebuilt")
+            self._rebuilt(f"{kind}/{path.name}", exc)
             return None
 
     def save_vectors(self, kind: str, key: str, array: np.ndarray) -> None:
@@ -138,5 +125,24 @@ class Cache:
 
         buffer = io.BytesIO()
         np.save(buffer, np.asarray(array, dtype=np.float32), allow_pickle=False)
-        _atomic_write(self._vector_file(kind, key), buffer.getvalue())
-        self.vectors_written += array.shape[0]
+        if self._write(self._vector_file(kind, key), buffer.getvalue()):
+            self.vectors_written += array.shape[0]
+
+    # failures ------------------------------------------------------------------------
+
+    def _rebuilt(self, name: str, error: BaseException) -> None:
+        reason = " ".join(str(error).split())[:120] or type(error).__name__
+        self.warnings.append(f"cache entry {name} was unreadable ({reason}); rebuilt")
+
+    def _write(self, path: Path, data: bytes) -> bool:
+        """Write an entry; a cache that cannot be written is reported once and the run goes on without it."""
+        if not self.writable:
+            return False
+        try:
+            _atomic_write(path, data)
+            return True
+        except OSError as exc:
+            self.writable = False
+            reason = exc.strerror or type(exc).__name__
+            self.warnings.append(f"cache folder cannot be written ({reason}); this run goes on without saving to it")
+            return False

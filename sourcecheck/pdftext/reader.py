@@ -10,6 +10,7 @@ with a message fit to show, and pypdf's logging and warnings are silenced while 
 from __future__ import annotations
 
 import logging
+import time
 import warnings
 from collections.abc import Iterator
 from contextlib import contextmanager
@@ -40,6 +41,8 @@ class RawPdf:
     xmp_title: str | None = None
     xmp_text: str = ""
     failed_pages: int = 0
+    #: Why the later pages were not read (a page or time limit), or "" when all were.
+    cut: str = ""
 
 
 @contextmanager
@@ -145,13 +148,18 @@ def open_pdf(data: bytes) -> PdfReader:
     return reader
 
 
-def read_pdf(data: bytes) -> RawPdf:
+def read_pdf(data: bytes, max_pages: int | None = None, seconds: float | None = None) -> RawPdf:
     """Text of every page and the metadata of the PDF in ``data``.
+
+    At most ``max_pages`` pages are read, and no page is started once ``seconds`` have
+    passed (a budget checked between pages, never a signal); ``RawPdf.cut`` says why the
+    rest was left.
 
     Raises:
         PdfUnreadable: not a PDF, empty, truncated/corrupt, or locked by a password.
     """
     _check_header(data)
+    started = time.monotonic()
     with quiet_pypdf():
         reader = open_pdf(data)
         try:
@@ -160,17 +168,26 @@ def read_pdf(data: bytes) -> RawPdf:
             raise PdfUnreadable(f"truncated or corrupt PDF ({one_line(exc)})") from None
         if not pages:
             raise PdfUnreadable("truncated or corrupt PDF (no pages could be read)")
+        cut = ""
+        if max_pages is not None and len(pages) > max_pages:
+            cut = (
+                f"{len(pages):,} pages, over the limit of {max_pages:,} (pdf_pages); only the first {max_pages:,} read"
+            )
+            pages = pages[:max_pages]
         texts: list[str] = []
         failed = 0
         last_error: Exception | None = None
-        for page in pages:
+        for number, page in enumerate(pages, start=1):
+            if seconds is not None and number > 1 and time.monotonic() - started > seconds:
+                cut = f"reading took over the limit of {seconds:g} s (source_seconds); pages {number} on not read"
+                break
             try:
                 texts.append(without_lone_surrogates(page.extract_text() or ""))
             except Exception as exc:
                 failed += 1
                 last_error = exc
                 texts.append("")
-        if failed == len(pages) and last_error is not None:
+        if failed == len(texts) and last_error is not None:
             raise PdfUnreadable(f"truncated or corrupt PDF ({one_line(last_error)})")
         xmp_title, xmp_text = _xmp(reader)
-        return RawPdf(texts, _info(reader), xmp_title, xmp_text, failed)
+        return RawPdf(texts, _info(reader), xmp_title, xmp_text, failed, cut)

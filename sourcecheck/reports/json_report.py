@@ -8,7 +8,7 @@ from __future__ import annotations
 import json
 from typing import Any
 
-from sourcecheck.model import Check, Evidence, Reference, Report
+from sourcecheck.model import Check, Evidence, Reference, Report, Review
 from sourcecheck.reports.caution import CAUTION
 
 SCHEMA = "sourcecheck.report/1"
@@ -36,7 +36,18 @@ def _check(check: Check) -> dict[str, Any]:
         "score": check.score,
         "reasons": [{"code": r.code, "message": r.message} for r in check.reasons],
         "evidence": [_evidence(e) for e in check.evidence],
+        "reviewed": _review(check.reviewed) if check.reviewed else None,
     }
+
+
+def _review(review: Review) -> dict[str, Any]:
+    """A person's acceptance: the note, where it came from, and (review file) fingerprint and date."""
+    item: dict[str, Any] = {"note": review.note, "origin": review.origin}
+    if review.fingerprint:
+        item["fingerprint"] = review.fingerprint
+    if review.accepted_on:
+        item["accepted_on"] = review.accepted_on
+    return item
 
 
 def _evidence(evidence: Evidence) -> dict[str, Any]:
@@ -56,6 +67,27 @@ def _evidence(evidence: Evidence) -> dict[str, Any]:
     return item
 
 
+def _reference_entry(report: Report, reference: Reference, cited: bool) -> dict[str, Any]:
+    """One reference list entry and its source file: ``matched_by`` is the method of the
+    strongest evidence, ``confidence`` (0..1) weighs all of it, ``match_detail`` says what it
+    was; an unmatched entry gets ``closest_source`` and ``refused_because`` instead."""
+    match = report.matches.get(reference.key)
+    item: dict[str, Any] = {
+        "key": reference.key,
+        "text": reference.text,
+        "source": match.source if match else None,
+        "matched_by": match.method.value if match else None,
+        "cited": cited,
+    }
+    if match is not None:
+        item["confidence"] = match.confidence
+        item["match_detail"] = match.detail
+    elif (refusal := report.refusals.get(reference.key)) is not None:
+        item["closest_source"] = refusal.candidate
+        item["refused_because"] = refusal.reason
+    return item
+
+
 def to_dict(report: Report) -> dict[str, Any]:
     """The report as plain JSON-ready data, in the contract's shape."""
     cited = report.cited_keys()
@@ -70,21 +102,16 @@ def to_dict(report: Report) -> dict[str, Any]:
             {
                 "id": result.claim.id,
                 "text": result.claim.text,
-                "location": {"line": result.claim.line, **({"file": result.claim.file} if result.claim.file else {})},
+                "location": {
+                    "line": result.claim.line,
+                    "unit": result.claim.unit,
+                    **({"file": result.claim.file} if result.claim.file else {}),
+                },
                 "checks": [_check(c) for c in result.checks],
             }
             for result in report.claims
         ],
-        "references": [
-            {
-                "key": r.key,
-                "text": r.text,
-                "source": report.matches[r.key].source if r.key in report.matches else None,
-                "matched_by": report.matches[r.key].method.value if r.key in report.matches else None,
-                "cited": r.key in cited,
-            }
-            for r in report.references
-        ],
+        "references": [_reference_entry(report, r, r.key in cited) for r in report.references],
         "unused_sources": list(report.unused_sources),
         "problems": [{"file": p.file, "message": p.message} for p in report.problems],
     }

@@ -1,32 +1,47 @@
-"""Tying reference entries to source files, most trusted evidence first.
+"""Tying reference entries to source files: all evidence weighed at once.
 
-Tiers, each only over the references and sources still unmatched:
-  1. map          the user's --map file: taken as given.
-  2. doi          the entry's DOI equals the source's (similarity 1.0) or is printed on
-                  its first two pages (0.95).
-  3. title        the entry's title is nearly the source's metadata title or a line
-                  near the top of its first page (see :func:`title_similarity`).
-  4. author-year  the entry's first author's family name and its year both appear on
-                  the source's first page (or the name in its /Author): the weakest,
-                  since one author publishes several papers a year.
-Within a tier a source goes to one reference only: the best-scoring claim wins, and a
-tie (two entries equally good for one file, or one entry equally good for two files) is
-left unmatched rather than guessed.
+  1. map        the user's --map file: taken as given, before anything else.
+  2. evidence   for every (entry, file) pair, points from each kind of evidence
+                (sources/_evidence.py): the entry's DOI or arXiv id printed by the file;
+                its parsed title against the file's title lines (:func:`title_similarity`);
+                the file's own title found inside the entry's text, which needs no parse;
+                the first author with the year.
+  3. assignment one global one-to-one assignment maximising the total (sources/_assign.py);
+                a pair the evidence cannot tell from a rival is left out and reported.
+Every match carries the method of its strongest evidence, that evidence's similarity, a
+confidence from all of it together, and the evidence in words. Every entry left without a
+file gets the closest file and why it was refused (:class:`~sourcecheck.model.MatchRefusal`).
 """
 
 from __future__ import annotations
 
 import itertools
 import posixpath
-import re
-import unicodedata
 from collections.abc import Iterable
-from dataclasses import dataclass
-from functools import lru_cache
+from dataclasses import dataclass, field
 
+import numpy as np
 from rapidfuzz import fuzz
 
-from sourcecheck.model import MatchMethod, Problem, Reference, Source, SourceMatch
+from sourcecheck.model import MatchMethod, MatchRefusal, Problem, Reference, Source, SourceMatch
+from sourcecheck.sources._assign import Tie, assign
+from sourcecheck.sources._evidence import (
+    ARXIV_POINTS,
+    AUTHOR_YEAR_POINTS,
+    DOI_CONFLICT_POINTS,
+    DOI_POINTS,
+    SHORT_TITLE_POINTS,
+    TITLE_POINTS,
+    Evidence,
+    best_title_in_entry,
+    entry_arxiv_ids,
+    entry_dois,
+    fold,
+    is_short,
+    main_title,
+    printed_author_points,
+    printed_titles,
+)
 from sourcecheck.text import find_dois, normalize_doi
 
 #: Least character-level similarity (rapidfuzz ``fuzz.ratio``, 0-100, on lower-cased,
@@ -52,16 +67,13 @@ _STOP = frozenset(
 )
 
 
-@lru_cache(maxsize=8192)
-def _fold(text: str) -> str:
-    """Lower case, accents removed, punctuation to spaces, spaces collapsed.
+#: Least points for a pair to be matched at all: the first author and the year, or more.
+MATCH_FLOOR = 1.0
+#: A DOI printed on the file's pages (not its metadata) is a little less sure: a page may
+#: print another work's DOI ("see also").
+DOI_ON_PAGE_DISCOUNT = 0.5
 
-    Cached: every reference is compared with every source's title lines, so the same
-    texts are folded again and again (it was most of a warm run's time on 40 sources).
-    """
-    text = unicodedata.normalize("NFKD", text)
-    text = "".join(ch for ch in text if not unicodedata.combining(ch))
-    return " ".join(re.sub(r"[^\w\s]|_", " ", text.lower()).split())
+_fold = fold  # cached: every entry is compared with every source's title lines
 
 
 def _content_words(text: str) -> list[str]:
@@ -80,15 +92,6 @@ def _words_align(a: str, b: str) -> bool:
     return True
 
 
-def _main_title(title: str) -> str | None:
-    """The part before a subtitle separator, if it is long enough to stand alone."""
-    for sep in (": ", " - ", " – ", " — ", ". "):
-        if sep in title:
-            head = title.split(sep, 1)[0]
-            return head if len(head.split()) >= 4 else None
-    return None
-
-
 def title_similarity(reference_title: str, candidates: Iterable[str]) -> float:
     """Best similarity in [0, 1] of a title against candidate strings, 0.0 if none passes.
 
@@ -96,13 +99,13 @@ def title_similarity(reference_title: str, candidates: Iterable[str]) -> float:
     :data:`TITLE_THRESHOLD` and the content words align (:data:`WORD_FLOOR`). Either side
     may also be compared by its main title alone, at :data:`MAIN_TITLE_FACTOR`.
     """
-    ref_main = _main_title(reference_title)
+    ref_main = main_title(reference_title)
     refs = [(_fold(reference_title), 1.0)]
     if ref_main:
         refs.append((_fold(ref_main), MAIN_TITLE_FACTOR))
     best = 0.0
     for raw in candidates:
-        cand_main = _main_title(raw)
+        cand_main = main_title(raw)
         cands = [(_fold(raw), 1.0)]
         if cand_main:
             cands.append((_fold(cand_main), MAIN_TITLE_FACTOR))
@@ -124,6 +127,7 @@ def title_candidates(source: Source, title_words: int) -> list[str]:
     """
     lines = [line for line in source.first_page_text.split("\n") if line.strip()][:TITLE_LINES]
     out = [source.title] if source.title else []
+    out.extend(printed_titles(source))
     out.extend(lines)
     out.extend(f"{a} {b}" for a, b in itertools.pairwise(lines))
     for line in lines:
@@ -156,7 +160,9 @@ def _doi_evidence(source: Source) -> set[str]:
 
 
 def _has_word(haystack: str, word: str) -> bool:
-    return bool(word) and re.search(rf"\b{re.escape(word)}\b", haystack) is not None
+    """Whether folded ``word`` stands as whole words in folded ``haystack`` (single spaces, no
+    punctuation after :func:`fold`, so a space is a word boundary; no regex per name)."""
+    return bool(word) and f" {word} " in f" {haystack} "
 
 
 def author_year_similarity(reference: Reference, source: Source) -> float:
@@ -172,44 +178,6 @@ def author_year_similarity(reference: Reference, source: Source) -> float:
     if not (found[0] and year):
         return 0.0
     return (sum(found) + 1) / (len(names) + 1)
-
-
-@dataclass(frozen=True)
-class _Claim:
-    score: float
-    key: str
-    source: str
-
-
-def _assign(claims: list[_Claim]) -> list[_Claim]:
-    """Best claims first; each key and each source at most once; exact ties left out."""
-    claims = sorted(claims, key=lambda c: (-c.score, c.key, c.source))
-    taken_keys: set[str] = set()
-    taken_sources: set[str] = set()
-    chosen: list[_Claim] = []
-    for claim in claims:
-        if claim.key in taken_keys or claim.source in taken_sources:
-            continue
-        rivals = [
-            other
-            for other in claims
-            if other is not claim
-            and other.score == claim.score
-            and (other.key == claim.key or other.source == claim.source)
-            and other.key not in taken_keys
-            and other.source not in taken_sources
-        ]
-        if rivals:
-            for other in (claim, *rivals):
-                if other.key == claim.key:
-                    taken_keys.add(claim.key)
-                if other.source == claim.source:
-                    taken_sources.add(claim.source)
-            continue
-        chosen.append(claim)
-        taken_keys.add(claim.key)
-        taken_sources.add(claim.source)
-    return chosen
 
 
 def _map_tier(
@@ -238,13 +206,78 @@ def _map_tier(
     return matches, problems
 
 
-def match_references(
+#: One kind of evidence for a pair: points, the method it stands for, its similarity, in words.
+_Kind = tuple[float, MatchMethod | None, float, str]
+
+
+def _id_evidence(reference: Reference, source: Source, page_dois: set[str]) -> _Kind:
+    """Points from identifiers: the entry's DOI or arXiv id printed by the source."""
+    dois = entry_dois(reference)
+    if dois:
+        if source.doi and normalize_doi(source.doi) in dois:
+            return DOI_POINTS, MatchMethod.DOI, 1.0, "DOI in the file's metadata"
+        if dois & page_dois:
+            return DOI_POINTS - DOI_ON_PAGE_DISCOUNT, MatchMethod.DOI, DOI_IN_TEXT, "DOI printed on its first pages"
+    arxiv = entry_arxiv_ids(reference)
+    if arxiv & set(source.identity.arxiv_ids):
+        return ARXIV_POINTS, MatchMethod.ARXIV, 1.0, "arXiv id printed on its first page"
+    if dois and (source.doi or source.identity.dois):
+        return DOI_CONFLICT_POINTS, None, 0.0, "the file prints another DOI"
+    return 0.0, None, 0.0, ""
+
+
+def pair_evidence(reference: Reference, source: Source, page_dois: set[str]) -> Evidence:
+    """All the evidence that ``reference`` cites ``source``, weighed (see sources/_evidence.py)."""
+    kinds: list[_Kind] = [_id_evidence(reference, source, page_dois)]
+    closeness = 0.0
+    if reference.title and _fold(reference.title):
+        parsed = title_similarity(reference.title, title_candidates(source, len(reference.title.split())))
+        closeness = parsed
+        kinds.append((TITLE_POINTS * parsed, MatchMethod.TITLE, parsed, f"title alike ({parsed:.2f})"))
+    found, close, title = best_title_in_entry(source, reference.text)
+    closeness = max(closeness, close)
+    if found:
+        weight = SHORT_TITLE_POINTS if is_short(title) else TITLE_POINTS
+        text = f"its title found in the entry ({found:.2f})"
+        kinds.append((weight * found, MatchMethod.TITLE_IN_ENTRY, found, text))
+    share = author_year_similarity(reference, source)
+    authors = (AUTHOR_YEAR_POINTS + share, MatchMethod.AUTHOR_YEAR, share, "first author and year on page 1")
+    printed, said = printed_author_points(reference, source)
+    kinds.append(authors if share else (printed, MatchMethod.AUTHOR_YEAR, 0.0, said))
+    # Identifiers, titles and authors are separate witnesses; two title readings are one.
+    ids = kinds[0]
+    titles = max(kinds[1:-1], key=lambda k: k[0], default=(0.0, None, 0.0, ""))
+    people = kinds[-1]
+    parts = [k for k in (ids, titles, people) if k[0] != 0]
+    if not parts:
+        return Evidence(0.0, None, 0.0, "", closeness)
+    lead = max(parts, key=lambda k: k[0])
+    return Evidence(sum(k[0] for k in parts), lead[1], lead[2], "; ".join(k[3] for k in parts if k[3]), closeness)
+
+
+@dataclass
+class MatchOutcome:
+    """What matching found: the matches, why the others have none, and problems to show.
+
+    ``problems`` are the --map file's and an empty sources folder's; ``unmatched`` holds,
+    by reference key, one line per entry left without a file, naming its closest file and why
+    (the caller shows those of cited entries).
+    """
+
+    matches: dict[str, SourceMatch] = field(default_factory=dict)
+    refusals: dict[str, MatchRefusal] = field(default_factory=dict)
+    problems: list[Problem] = field(default_factory=list)
+    unmatched: dict[str, Problem] = field(default_factory=dict)
+
+
+def match_sources(
     references: list[Reference],
     sources: list[Source],
     mapping: dict[str, str] | None = None,
     sources_root: str = "",
-) -> tuple[dict[str, SourceMatch], list[Problem]]:
-    """Reference key -> its source file, and problems with the mapping.
+    draft: str = "",
+) -> MatchOutcome:
+    """Match every entry to at most one source file, each file to at most one entry.
 
     Args:
         references: the draft's reference entries.
@@ -252,51 +285,94 @@ def match_references(
         mapping: key -> file from the --map file, relative to the sources folder or
             including ``sources_root``.
         sources_root: the sources folder as it prefixes each ``Source.path``.
+        draft: the draft's display name, which problem lines about its entries name.
     """
-    matched, problems = _map_tier(references, sources, mapping or {}, sources_root)
-    found: dict[str, SourceMatch] = {m.key: m for m in matched}
-    used = {m.source for m in matched}
-
-    def open_refs() -> list[Reference]:
-        return [r for r in references if r.key not in found]
-
-    def open_sources() -> list[Source]:
-        return [s for s in sources if s.path not in used]
-
-    def settle(claims: list[_Claim], method: MatchMethod) -> None:
-        for claim in _assign(claims):
-            found[claim.key] = SourceMatch(claim.key, claim.source, method, round(claim.score, 4))
-            used.add(claim.source)
-
-    evidence = {s.path: _doi_evidence(s) for s in sources}
-    doi_claims = []
-    for ref in open_refs():
-        doi = normalize_doi(ref.doi) if ref.doi else None
-        for source in open_sources() if doi else ():
-            if source.doi and normalize_doi(source.doi) == doi:
-                doi_claims.append(_Claim(1.0, ref.key, source.path))
-            elif doi in evidence[source.path]:
-                doi_claims.append(_Claim(DOI_IN_TEXT, ref.key, source.path))
-    settle(doi_claims, MatchMethod.DOI)
-
-    title_claims = []
-    for ref in open_refs():
-        if not ref.title or not _fold(ref.title):
+    mapped, problems = _map_tier(references, sources, mapping or {}, sources_root)
+    outcome = MatchOutcome({m.key: m for m in mapped}, {}, problems)
+    if not sources:
+        folder = sources_root or "."
+        outcome.problems.append(Problem(folder, "the sources folder holds no readable PDF; no reference can match"))
+        why = "the sources folder holds no readable PDF"
+        outcome.refusals = {r.key: MatchRefusal(r.key, None, why) for r in references if r.key not in outcome.matches}
+        return outcome
+    used = {m.source for m in mapped}
+    refs = [r for r in references if r.key not in outcome.matches]
+    free = [s for s in sources if s.path not in used]
+    page_dois = {s.path: set(s.identity.dois) | _doi_evidence(s) for s in free}
+    evidence = [[pair_evidence(r, s, page_dois[s.path]) for s in free] for r in refs]
+    points = np.array([[e.points for e in row] for row in evidence], dtype=float).reshape(len(refs), len(free))
+    chosen, ties = assign(points, MATCH_FLOOR)
+    for pair in chosen:
+        ref, source, ev = refs[pair.row], free[pair.col], evidence[pair.row][pair.col]
+        method = ev.method or MatchMethod.AUTHOR_YEAR  # over the floor, some kind always leads
+        match = SourceMatch(ref.key, source.path, method, round(ev.similarity, 4), ev.confidence, ev.detail)
+        outcome.matches[ref.key] = match
+    taken = {pair.col: refs[pair.row].key for pair in chosen}
+    tied = {t.row: t for t in ties}
+    tied_files = {t.col: t for t in ties}
+    for row, ref in enumerate(refs):
+        if ref.key in outcome.matches:
             continue
-        n = len(ref.title.split())
-        for source in open_sources():
-            score = title_similarity(ref.title, title_candidates(source, n))
-            if score > 0:
-                title_claims.append(_Claim(score, ref.key, source.path))
-    settle(title_claims, MatchMethod.TITLE)
-
-    author_claims = []
-    for ref in open_refs():
-        for source in open_sources():
-            score = author_year_similarity(ref, source)
-            if score > 0:
-                author_claims.append(_Claim(score, ref.key, source.path))
-    settle(author_claims, MatchMethod.AUTHOR_YEAR)
-
+        refusal = _refusal(ref, evidence[row], free, refs, taken, tied.get(row), tied_files)
+        outcome.refusals[ref.key] = refusal
+        where = draft or sources_root or "."
+        outcome.unmatched[ref.key] = Problem(where, f"reference '{ref.key}' matched no source file: {refusal.reason}")
     order = {r.key: i for i, r in enumerate(references)}
-    return dict(sorted(found.items(), key=lambda kv: order.get(kv[0], len(order)))), problems
+    outcome.matches = dict(sorted(outcome.matches.items(), key=lambda kv: order.get(kv[0], len(order))))
+    return outcome
+
+
+def _refusal(
+    ref: Reference,
+    evidence: list[Evidence],
+    sources: list[Source],
+    refs: list[Reference],
+    taken: dict[int, str],
+    tie: Tie | None,
+    tied_files: dict[int, Tie],
+) -> MatchRefusal:
+    """The closest file for an unmatched entry and why it was not given."""
+    if tie is not None:
+        first = sources[tie.col].path
+        if tie.rival_col is not None:
+            other = sources[tie.rival_col].path
+            why = f"it fits {first} and {other} about equally ({evidence[tie.col].detail}); say which in --map"
+        else:
+            rival = refs[tie.rival_row].key if tie.rival_row is not None else "another reference"
+            detail = evidence[tie.col].detail
+            why = f"{first} fits it and reference '{rival}' about equally ({detail}); say which in --map"
+        return MatchRefusal(ref.key, first, why, evidence[tie.col].confidence)
+    if not evidence:
+        return MatchRefusal(ref.key, None, "no source file is left unmatched")
+    col = max(range(len(evidence)), key=lambda c: (evidence[c].points, evidence[c].closeness))
+    best = evidence[col]
+    if best.points <= 0:
+        col = max(range(len(evidence)), key=lambda c: evidence[c].closeness)
+        best = evidence[col]
+        if best.closeness <= 0:
+            return MatchRefusal(ref.key, None, "no source file shares its DOI, title, or first author and year")
+        why = (
+            "no file shares its DOI, its title, or its first author with the year; "
+            f"the closest title is that of {sources[col].path}, only {best.closeness:.0%} alike"
+        )
+        return MatchRefusal(ref.key, sources[col].path, why)
+    path = sources[col].path
+    if col in tied_files and refs[tied_files[col].row].key != ref.key:
+        rival = refs[tied_files[col].row].key
+        why = f"{path} fits it and reference '{rival}' about equally ({best.detail}); say which in --map"
+    elif col in taken:
+        why = f"closest is {path}, but it went to reference '{taken[col]}', which fits it better ({best.detail} here)"
+    else:
+        why = f"closest is {path}, but the evidence is too weak ({best.detail})"
+    return MatchRefusal(ref.key, path, why, best.confidence)
+
+
+def match_references(
+    references: list[Reference],
+    sources: list[Source],
+    mapping: dict[str, str] | None = None,
+    sources_root: str = "",
+) -> tuple[dict[str, SourceMatch], list[Problem]]:
+    """Reference key -> its source file, and the mapping's problems (see :func:`match_sources`)."""
+    outcome = match_sources(references, sources, mapping, sources_root)
+    return outcome.matches, outcome.problems

@@ -23,6 +23,7 @@ from pathlib import Path
 
 from rapidfuzz import fuzz
 
+from sourcecheck.limits import Limits
 from sourcecheck.model import Passage, Problem, Source
 from sourcecheck.pdftext import (
     NO_TEXT,
@@ -38,6 +39,7 @@ from sourcecheck.pdftext import (
     typical_length,
     vocabulary,
 )
+from sourcecheck.sources._identity import read_identity
 from sourcecheck.sources._passages import make_passages
 from sourcecheck.sources._printed import printed_page_numbers
 from sourcecheck.sources._refsection import before_reference_heading, cut_reference_sections
@@ -168,7 +170,14 @@ def _with_running_lines(text: str, lines: list[list[str]], body: list[list[str]]
     return "\n".join([text, *cut]) if cut else text
 
 
-def read_source(path: Path, display: str, sha256: str | None = None, max_words: int = 90) -> Source | Problem:
+def read_source(
+    path: Path,
+    display: str,
+    sha256: str | None = None,
+    max_words: int = 90,
+    limits: Limits | None = None,
+    notes: list[Problem] | None = None,
+) -> Source | Problem:
     """Read one source PDF; any failure is a :class:`Problem` naming ``display``.
 
     Args:
@@ -176,13 +185,16 @@ def read_source(path: Path, display: str, sha256: str | None = None, max_words: 
         display: how the file is named to the user and in passages (its display path).
         sha256: the file's hash if the caller has it already (it keys the cache).
         max_words: the largest passage, in whitespace-separated words.
+        limits: pages and seconds read of one PDF (:mod:`sourcecheck.limits`).
+        notes: where a PDF read only in part is reported (the Source is still returned).
     """
+    limits = limits or Limits()
     try:
         data = Path(path).read_bytes()
     except OSError as exc:
         return Problem(file=display, message=f"cannot open ({exc.strerror or exc})")
     try:
-        raw = read_pdf(data)
+        raw = read_pdf(data, max_pages=limits.pdf_pages, seconds=limits.source_seconds)
     except PdfUnreadable as exc:
         return Problem(file=display, message=str(exc))
     except Exception as exc:  # pypdf failing where _pdf did not expect it: still one line
@@ -190,8 +202,12 @@ def read_source(path: Path, display: str, sha256: str | None = None, max_words: 
     texts = [normalize_chars(page) for page in raw.pages]
     if not any(ch.isalnum() for page in texts for ch in page):
         return Problem(file=display, message=NO_TEXT)
+    if raw.cut and notes is not None:
+        notes.append(Problem(display, raw.cut))
     try:
-        return _build(raw, texts, display, sha256 or hashlib.sha256(data).hexdigest(), max_words)
+        source = _build(raw, texts, display, sha256 or hashlib.sha256(data).hexdigest(), max_words)
+        source.identity = read_identity(data, raw, texts, raw.info.get("/Title") or raw.xmp_title)
+        return source
     except Exception as exc:  # a bug of ours on odd text must not stop the run either
         return Problem(file=display, message=f"text could not be processed ({exc!r})"[:160])
 

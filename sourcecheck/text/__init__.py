@@ -10,7 +10,7 @@ from __future__ import annotations
 
 from sourcecheck.text.display import visible
 from sourcecheck.text.identifiers import find_doi, find_dois, normalize_doi
-from sourcecheck.text.names import FAMILY, NAME_WORD, PARTICLE_RE, PARTICLES, ascii_slug, family_key
+from sourcecheck.text.names import FAMILY, NAME_WORD, PARTICLE_RE, PARTICLES, ascii_slug, family_key, fold
 from sourcecheck.text.sentences import ends_sentence, sentence_spans, split_sentences, wrapped_sentence_spans
 from sourcecheck.text.snippets import trim
 from sourcecheck.text.tokens import STOP_WORDS, coverage, s_stem, tokenize
@@ -27,6 +27,7 @@ __all__ = [
     "family_key",
     "find_doi",
     "find_dois",
+    "fold",
     "normalize_doi",
     "s_stem",
     "sentence_spans",

@@ -86,3 +86,14 @@ def test_unreadable_file(tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> Non
     with pytest.raises(DraftUnreadable) as caught:
         read_draft(path, "locked.md")
     assert str(caught.value) == "locked.md: cannot be opened (Permission denied)"
+
+
+def test_a_draft_over_the_file_size_limit_stops_the_run_in_one_line(tmp_path: Path) -> None:
+    from sourcecheck.limits import Limits
+    from sourcecheck.model import ReadOptions
+
+    path = tmp_path / "big.md"
+    path.write_text("Nests rose [1].\n" * 200, encoding="utf-8")
+    with pytest.raises(DraftUnreadable) as caught:
+        read_draft(path, "big.md", ReadOptions(limits=Limits(file_bytes=1024)))
+    assert str(caught.value) == "big.md: 3.1 KiB, over the limit of 1 KiB (file_bytes); not read"

@@ -1,12 +1,13 @@
 """The passage and vector cache: round trips, atomic writes, corrupt entries rebuilt."""
 
 import json
+from dataclasses import replace
 from pathlib import Path
 
 import numpy as np
 
 from sourcecheck.index.cache import Cache
-from sourcecheck.model import Passage, Source
+from sourcecheck.model import Passage, Source, SourceIdentity
 
 
 def _source(path: str = "src/a.pdf") -> Source:
@@ -99,3 +100,55 @@ def test_section_and_place_of_passages_survive_the_round_trip(tmp_path: Path) ->
     loaded = cache.load_source("ab" * 32, "x1", "a.pdf")
     assert loaded is not None
     assert [(p.section, p.place) for p in loaded.passages] == [("background", 0.0), ("results", 0.3333)]
+
+
+def test_source_identity_survives_the_round_trip(tmp_path: Path) -> None:
+    identity = SourceIdentity(
+        title="Tidal heron survey",
+        metadata_title="Tidal Heron Survey",
+        dois=("10.55555/x1", "10.55555/x1.2"),
+        arxiv_ids=("2101.01234",),
+        authors=("Ada Okafor", "Bo Lund"),
+        title_page=2,
+    )
+    cache = Cache(tmp_path)
+    cache.save_source(replace(_source(), identity=identity), "x1")
+    loaded = cache.load_source("ab" * 32, "x1", "src/a.pdf")
+    assert loaded is not None and loaded.identity == identity
+
+
+def test_entry_without_an_identity_loads_with_an_empty_one(tmp_path: Path) -> None:
+    cache = Cache(tmp_path)
+    cache.save_source(_source(), "x1")
+    path = next((tmp_path / "sources").glob("*.json"))
+    data = json.loads(path.read_text(encoding="utf-8"))
+    del data["identity"]
+    path.write_text(json.dumps(data), encoding="utf-8")
+    loaded = cache.load_source("ab" * 32, "x1", "src/a.pdf")
+    assert loaded is not None and loaded.identity == SourceIdentity()
+
+
+def test_a_cache_path_that_is_a_file_is_reported_once_and_the_run_goes_on(tmp_path: Path) -> None:
+    blocker = tmp_path / "cache"
+    blocker.write_text("not a folder", encoding="utf-8")
+    cache = Cache(blocker)
+    assert cache.load_source("ab" * 32, "x1", "a.pdf") is None
+    cache.save_source(_source(), "x1")
+    cache.save_vectors("passages", "k", np.ones((2, 3), dtype=np.float32))
+    assert cache.writable is False
+    assert cache.warnings == ["cache folder cannot be written (Not a directory); this run goes on without saving to it"]
+
+
+def test_a_read_only_cache_still_serves_what_it_holds(tmp_path: Path, monkeypatch) -> None:
+    cache = Cache(tmp_path)
+    cache.save_source(_source(), "x1")
+
+    def refuse(*args: object, **kwargs: object) -> None:  # a read-only folder, even for root
+        raise PermissionError(13, "Permission denied")
+
+    monkeypatch.setattr("sourcecheck.index.cache.tempfile.mkstemp", refuse)
+    assert cache.load_source("ab" * 32, "x1", "b.pdf") is not None
+    cache.save_vectors("passages", "k", np.ones((2, 3), dtype=np.float32))
+    said = "cache folder cannot be written (Permission denied); this run goes on without saving to it"
+    assert cache.warnings == [said]
+    assert cache.vectors_written == 0

@@ -5,6 +5,7 @@ from dataclasses import replace
 
 import pytest
 
+from sourcecheck.model import MatchRefusal, Review
 from sourcecheck.reports.caution import CAUTION
 from sourcecheck.reports.json_report import SCHEMA, dumps
 from tests.reports.sample_report import sample_report
@@ -22,7 +23,7 @@ def test_top_level_fields_of_the_contract() -> None:
 def test_claims_and_checks_carry_contract_fields() -> None:
     data = json.loads(dumps(sample_report()))
     claim = data["claims"][0]
-    assert claim["id"] == "c1" and claim["location"] == {"line": 4}
+    assert claim["id"] == "c1" and claim["location"] == {"line": 4, "unit": "line"}
     check = claim["checks"][0]
     assert check["citation"] == "[1]"
     assert check["reference"]["key"] == "1" and check["reference"]["year"] == 2021
@@ -31,6 +32,27 @@ def test_claims_and_checks_carry_contract_fields() -> None:
     assert check["evidence"][0]["page"] == 4
     assert len(data["claims"][1]["checks"]) == 2  # one check per cited work
     assert data["claims"][1]["checks"][1]["reference"] is None
+    assert check["reviewed"] is None  # nobody accepted it
+
+
+def test_an_accepted_check_carries_its_note_and_fingerprint() -> None:
+    report = sample_report()
+    report.claims[0].checks[0].reviewed = Review("18% is the earlier count", "review-file", "ab" * 32, "2026-12-01")
+    report.claims[1].checks[0].reviewed = Review("marked in the draft", "ignore-comment")
+    data = json.loads(dumps(report))
+    assert data["claims"][0]["checks"][0]["reviewed"] == {
+        "note": "18% is the earlier count",
+        "origin": "review-file",
+        "fingerprint": "ab" * 32,
+        "accepted_on": "2026-12-01",
+    }
+    assert data["claims"][1]["checks"][0]["reviewed"] == {"note": "marked in the draft", "origin": "ignore-comment"}
+
+
+def test_a_word_draft_names_paragraphs() -> None:
+    report = sample_report()
+    report.claims[0].claim = replace(report.claims[0].claim, unit="paragraph")
+    assert json.loads(dumps(report))["claims"][0]["location"] == {"line": 4, "unit": "paragraph"}
 
 
 def test_references_unused_sources_and_problems() -> None:
@@ -99,3 +121,17 @@ def test_the_schema_rejects_an_unknown_band() -> None:
     data["claims"][0]["checks"][0]["band"] = "fine"
     with pytest.raises(jsonschema.ValidationError):
         report_schema.validate(data)
+
+
+def test_references_carry_match_confidence_or_the_refusal() -> None:
+    report = sample_report()
+    report.matches["1"] = replace(report.matches["1"], confidence=0.996, detail="DOI in the file's metadata")
+    report.refusals["2"] = MatchRefusal(
+        "2", "src/orphan.pdf", "closest is src/orphan.pdf, but the evidence is too weak"
+    )
+    refs = {r["key"]: r for r in json.loads(dumps(report))["references"]}
+    assert (refs["1"]["confidence"], refs["1"]["match_detail"]) == (0.996, "DOI in the file's metadata")
+    assert "closest_source" not in refs["1"]
+    assert refs["2"]["closest_source"] == "src/orphan.pdf"
+    assert refs["2"]["refused_because"].startswith("closest is src/orphan.pdf")
+    assert "confidence" not in refs["2"] and "closest_source" not in refs["3"]

@@ -6,6 +6,8 @@ from pathlib import Path
 
 import pytest
 
+from sourcecheck.model import Source
+from sourcecheck.sources import read_source
 from tests.pdf_fixtures import paper_pdf
 
 #: Invented body text, distinct on every page so no body line looks like a running line.
@@ -58,3 +60,21 @@ def article(tmp_path_factory: pytest.TempPathFactory) -> Path:
         metadata_title="Marsh edge retreat in a northern estuary",
         metadata_author="Ferreira, N.; Lindqvist, T.",
     )
+
+
+@pytest.fixture(scope="session")
+def real_sources() -> dict[str, Source]:
+    """The 27 real papers of ../shared/data/papers, each read once per test session (~40 s).
+
+    The folder lives beside the repository (CI checks it out there); it is never copied in.
+    """
+    from tests.real_references import PAPERS_DIR, papers
+
+    if not PAPERS_DIR.is_dir():
+        pytest.fail(f"{PAPERS_DIR} is missing: the real-paper tests read the shared data set from there")
+    read: dict[str, Source] = {}
+    for paper in papers():
+        source = read_source(PAPERS_DIR / paper.file, paper.file)
+        assert isinstance(source, Source), source
+        read[paper.file] = source
+    return read

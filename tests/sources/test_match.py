@@ -1,15 +1,16 @@
-"""Matching reference entries to sources: map, DOI, title, author-year."""
+"""Matching reference entries to sources: map, DOI, arXiv id, titles, author-year, one assignment."""
 
 from __future__ import annotations
 
+from dataclasses import replace
 from pathlib import Path
 
 import pytest
 from rapidfuzz import fuzz
 
-from sourcecheck.model import MatchMethod, Passage, Reference, Source
-from sourcecheck.sources import match_references, read_source
-from sourcecheck.sources._match import TITLE_THRESHOLD, title_similarity
+from sourcecheck.model import MatchMethod, Passage, Problem, Reference, Source, SourceIdentity
+from sourcecheck.sources import match_references, match_sources, read_source
+from sourcecheck.sources._match import DOI_IN_TEXT, TITLE_THRESHOLD, title_similarity
 
 
 def _source(
@@ -161,3 +162,104 @@ def test_read_and_match_end_to_end(article: Path) -> None:
     assert matches["2"].method is MatchMethod.TITLE
     matches, _ = match_references(refs[2:], [source])
     assert matches["3"].method is MatchMethod.AUTHOR_YEAR
+
+
+# --- evidence weighed at once (invented entries and pages) ------------------------------
+
+LONG_TITLE = "Grazing pressure and seed rain on coastal dune grassland"
+
+
+def _titled(path: str, title: str, first_page: str = "", **identity: object) -> Source:
+    source = _source(path, first_page=first_page or f"{title}\nAbstract.")
+    return replace(source, identity=SourceIdentity(title=title, **identity))  # type: ignore[arg-type]
+
+
+def test_title_found_in_the_entry_needs_no_parsed_title() -> None:
+    # The parser read no title (a bad parse); the source's own title stands in the entry.
+    entry = f"okafor a lin b {LONG_TITLE.lower()} j invented coasts 12 40 49 2021"
+    ref = Reference(key="1", text=entry)
+    matches, _ = match_references([ref], [_titled("a.pdf", LONG_TITLE)])
+    assert matches["1"].method is MatchMethod.TITLE_IN_ENTRY
+    assert matches["1"].confidence > 0.9 and "title found in the entry" in matches["1"].detail
+
+
+def test_title_in_the_entry_refuses_one_changed_word() -> None:
+    entry = "Okafor A. Grazing pressure and seed rain on inland dune grassland. J Coasts. 2021."
+    assert match_references([Reference(key="1", text=entry)], [_titled("a.pdf", LONG_TITLE)])[0] == {}
+
+
+def test_short_title_inside_a_longer_title_is_not_a_match() -> None:
+    entry = "Lin B. Sleep and memory consolidation in older adults. Sleep Res. 2020;3:1-9."
+    ref = Reference(key="1", text=entry, title="Sleep and memory consolidation in older adults")
+    outcome = match_sources([ref], [_titled("a.pdf", "Sleep and memory in students")])
+    assert outcome.matches == {}
+    assert outcome.refusals["1"].candidate == "a.pdf"
+
+
+def test_doi_adds_to_the_title_and_leads_the_method() -> None:
+    source = _titled("a.pdf", LONG_TITLE, dois=("10.5555/dune.7",))
+    ref = Reference(key="1", text=f"Okafor A. {LONG_TITLE}. J Coasts. 2021. doi:10.5555/dune.7", title=LONG_TITLE)
+    match = match_references([ref], [source])[0]["1"]
+    assert (match.method, match.similarity) == (MatchMethod.DOI, DOI_IN_TEXT)
+    title_only = match_references([replace(ref, text=LONG_TITLE)], [source])[0]["1"]
+    assert match.confidence > title_only.confidence
+
+
+def test_arxiv_id_matches_a_preprint() -> None:
+    source = _titled("p.pdf", "A completely different heading", arxiv_ids=("2101.01234",))
+    ref = Reference(key="1", text="Okafor A. Preprint. arXiv:2101.01234v3, 2021.")
+    assert match_references([ref], [source])[0]["1"].method is MatchMethod.ARXIV
+
+
+def test_one_assignment_gives_each_entry_the_file_only_it_explains() -> None:
+    # Entry A fits both files by author and year, entry B only the first: tier by tier,
+    # A would take the first file; the joint assignment gives B the first and A the second.
+    both = _source("both.pdf", first_page="Ek, Okafor and Lin 2019 report")
+    only_a = _source("a.pdf", first_page="Okafor and Lin 2019 report")
+    a = _ref("okafor2019", authors=("Okafor", "Lin", "Ek"), year=2019)
+    b = _ref("ek2019", authors=("Ek", "Okafor"), year=2019)
+    matches, _ = match_references([a, b], [both, only_a])
+    assert {k: m.source for k, m in matches.items()} == {"okafor2019": "a.pdf", "ek2019": "both.pdf"}
+
+
+def test_two_files_with_one_title_are_reported_not_guessed() -> None:
+    sources = [_titled("v1.pdf", LONG_TITLE), _titled("v2.pdf", LONG_TITLE)]
+    outcome = match_sources([Reference(key="1", text=LONG_TITLE, title=LONG_TITLE)], sources, draft="d.md")
+    assert outcome.matches == {}
+    line = outcome.unmatched["1"]
+    assert line.file == "d.md" and "v1.pdf" in line.message and "v2.pdf" in line.message
+    assert "about equally" in outcome.refusals["1"].reason
+
+
+def test_two_entries_for_one_file_both_say_so() -> None:
+    # The same work entered twice in the list: neither copy is guessed, each names the other.
+    entries = [Reference(key=k, text=f"Okafor A. {LONG_TITLE}. J Coasts. 2021.") for k in ("1", "2")]
+    outcome = match_sources(entries, [_titled("a.pdf", LONG_TITLE)])
+    assert outcome.matches == {}
+    reasons = {k: r.reason for k, r in outcome.refusals.items()}
+    assert "reference '2' about equally" in reasons["1"] and "reference '1' about equally" in reasons["2"]
+
+
+def test_refusal_names_the_entry_that_took_the_closest_file() -> None:
+    source = _titled("a.pdf", LONG_TITLE, dois=("10.5555/dune.7",))
+    winner = Reference(key="1", text=f"{LONG_TITLE}. doi:10.5555/dune.7", title=LONG_TITLE)
+    loser = Reference(key="2", text=f"Okafor A. {LONG_TITLE}. J Coasts. 2021.")
+    outcome = match_sources([winner, loser], [source])
+    assert list(outcome.matches) == ["1"]
+    refusal = outcome.refusals["2"]
+    assert refusal.candidate == "a.pdf" and "reference '1'" in refusal.reason
+
+
+def test_unrelated_entry_names_the_closest_title_and_says_nothing_ties_it() -> None:
+    outcome = match_sources([Reference(key="1", text="Berg C. Ice cores. Polar J. 2001.")], [_titled("a.pdf", TITLE)])
+    assert outcome.refusals["1"].candidate == "a.pdf"
+    assert outcome.refusals["1"].reason.startswith("no file shares its DOI")
+
+
+def test_empty_sources_folder_is_one_problem_line() -> None:
+    outcome = match_sources([_ref("1", title=TITLE), _ref("2", title=LONG_TITLE)], [], sources_root="lib")
+    assert outcome.problems == [Problem("lib", "the sources folder holds no readable PDF; no reference can match")]
+    assert outcome.matches == {} and outcome.unmatched == {}  # no line per reference on top
+    assert {k: (r.candidate, r.reason) for k, r in outcome.refusals.items()} == {
+        k: (None, "the sources folder holds no readable PDF") for k in ("1", "2")
+    }

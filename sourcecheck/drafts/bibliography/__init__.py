@@ -15,11 +15,41 @@ from pathlib import Path
 from sourcecheck.drafts.bibliography.bbl import parse_bbl
 from sourcecheck.drafts.bibliography.bibtex import parse_bibtex
 from sourcecheck.drafts.bibliography.csl_json import parse_csl_json
+from sourcecheck.drafts.bibliography.reflist import parse_references
 from sourcecheck.drafts.bibliography.ris import parse_ris
 from sourcecheck.drafts.textfile import decode
+from sourcecheck.limits import Limits, size_text
 from sourcecheck.model import Problem, Reference
 
-__all__ = ["PARSERS", "load_bibliography", "parse_bbl", "parse_bibtex", "parse_csl_json", "parse_ris"]
+__all__ = [
+    "OUTSIDE_FOLDER",
+    "PARSERS",
+    "inside_folder",
+    "load_bibliography",
+    "parse_bbl",
+    "parse_bibtex",
+    "parse_csl_json",
+    "parse_references",
+    "parse_ris",
+]
+
+#: Why a bibliography a draft names outside its own folder is not read.
+OUTSIDE_FOLDER = "refused (outside the draft's folder; give it with --bib to read it)"
+
+
+def inside_folder(path: Path, folder: Path) -> bool:
+    """Whether ``path``, links and ".." resolved, lies inside ``folder``.
+
+    A draft from a stranger may name "../../home/user/.ssh/id_rsa" as its bibliography;
+    what the draft names is read only inside the draft's folder, as ``\\input`` is.
+    A file the user names (``--bib``) is the user's choice and is not confined. A name
+    no file can have (a NUL byte, too long) is refused too.
+    """
+    try:
+        return Path(path).resolve().is_relative_to(Path(folder).resolve())
+    except (OSError, ValueError):
+        return False
+
 
 Parser = Callable[[str, str], tuple[list[Reference], list[Problem]]]
 
@@ -34,7 +64,9 @@ PARSERS: dict[str, Parser] = {
 }
 
 
-def load_bibliography(path: Path, display: str | None = None) -> tuple[list[Reference], list[Problem]]:
+def load_bibliography(
+    path: Path, display: str | None = None, limits: Limits | None = None
+) -> tuple[list[Reference], list[Problem]]:
     """The references of the bibliography file at ``path``; ``display`` names it in Problems.
 
     The parser is chosen by suffix, else by a look at the content. Never raises: a
@@ -42,10 +74,15 @@ def load_bibliography(path: Path, display: str | None = None) -> tuple[list[Refe
     """
     path = Path(path)
     name = display or str(path)
+    limits = limits or Limits()
     try:
         if not path.is_file():
             reason = "is a folder, not a bibliography file" if path.is_dir() else "bibliography file not found"
             return [], [Problem(name, reason)]
+        size = path.stat().st_size
+        if size > limits.file_bytes:
+            limit = f"over the limit of {size_text(limits.file_bytes)} (file_bytes)"
+            return [], [Problem(name, f"{size_text(size)}, {limit}; not read")]
         data = path.read_bytes()
     except OSError as error:
         return [], [Problem(name, f"bibliography file cannot be opened ({error.strerror or type(error).__name__})")]
@@ -55,7 +92,10 @@ def load_bibliography(path: Path, display: str | None = None) -> tuple[list[Refe
         what = f"'{path.suffix}'" if path.suffix else "without a suffix"
         known = "use .bib, .bbl, .json or .ris"
         return [], [*problems, Problem(name, f"bibliography format {what} is not known ({known})")]
-    references, found = parser(text, name)
+    if parser is parse_csl_json:
+        references, found = parse_csl_json(text, name, limits.nesting_depth)
+    else:
+        references, found = parser(text, name)
     return references, problems + found
 
 

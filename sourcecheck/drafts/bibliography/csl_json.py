@@ -14,13 +14,40 @@ from typing import Any
 from sourcecheck.drafts.bibliography.record import Person, make_reference, normalise_doi, year_of
 from sourcecheck.model import Problem, Reference
 
+# A JSON string (escapes included) or one bracket: strings are skipped, brackets counted.
+_JSON_TOKEN_RE = re.compile(r'"(?:[^"\\]|\\.)*"|[\[\]{}]')
 
-def parse_csl_json(text: str, display: str) -> tuple[list[Reference], list[Problem]]:
-    """References of a CSL-JSON file, keyed by each item's ``id``."""
+
+def json_depth(text: str, stop: int) -> int:
+    """How deeply ``text``'s arrays and objects nest, counted up to just past ``stop``."""
+    depth = deepest = 0
+    for token in _JSON_TOKEN_RE.finditer(text):
+        mark = token.group(0)
+        if mark in "[{":
+            depth += 1
+            deepest = max(deepest, depth)
+            if deepest > stop:
+                break
+        elif mark in "]}":
+            depth -= 1
+    return deepest
+
+
+def parse_csl_json(text: str, display: str, max_depth: int = 100) -> tuple[list[Reference], list[Problem]]:
+    """References of a CSL-JSON file, keyed by each item's ``id``.
+
+    JSON nested deeper than ``max_depth`` (a CSL item is four levels deep) is refused
+    before it is parsed: Python's parser recurses and would give up with an error.
+    """
+    depth = json_depth(text, max_depth)
+    if depth > max_depth:
+        return [], [Problem(display, f"JSON nested over {max_depth} deep (nesting_depth); no entries read")]
     try:
         data = json.loads(text)
     except json.JSONDecodeError as error:
         return [], [Problem(display, f"not valid JSON (line {error.lineno}: {error.msg}); no entries read")]
+    except RecursionError:
+        return [], [Problem(display, "JSON nested too deep to read; no entries read")]
     if isinstance(data, dict) and "id" in data:
         data = [data]  # a single item, as some tools write it
     if isinstance(data, dict) and isinstance(data.get("items"), list):

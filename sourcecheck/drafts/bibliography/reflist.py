@@ -33,7 +33,8 @@ _ATX_RE = re.compile(r"^\s{0,3}(#{1,6})\s+(.*?)\s*#*\s*$")
 _SETEXT_RE = re.compile(r"^\s{0,3}(=+|-+)\s*$")
 _BOLD_RE = re.compile(r"^\s*(\*\*|__)(.+?)\1\s*:?\s*$")
 _BULLET_RE = re.compile(r"^\s*[-*+•]\s+")
-_NUMBER_LABEL_RE = re.compile(r"^\s*(?:\[(\d{1,4})\]|(\d{1,4})[.)])\s+(?=\S)")
+# Up to three digits: a wrapped line that opens with a year ("2016. “Title.”") is no label.
+_NUMBER_LABEL_RE = re.compile(r"^\s*(?:\[(\d{1,3})\]|(\d{1,3})[.)])\s+(?=\S)")
 _DOI_RE = re.compile(r"\b10\.\d{4,9}/[^\s\"<>]+", re.IGNORECASE)
 _URL_RE = re.compile(r"(?:https?://|www\.)\S+", re.IGNORECASE)
 _YEAR = r"(?:1[5-9]|20)\d{2}"
@@ -44,10 +45,16 @@ _APA_YEAR_RE = re.compile(
 _PLAIN_YEAR_RE = re.compile(rf"\b(?P<year>{_YEAR})(?P<suffix>[a-z])?\b")
 _QUOTED_RE = re.compile(r"[\"“](?P<title>[^\"“”]{3,})[\"”]")
 _INITIAL_WORD_RE = re.compile(r"^(?:[A-Z]\.?[-‐]?){1,3}\.?$")
+# "Family, Given" or "Given Family, Given" (accented or capitalised names too: "Hervé", "CMS"),
+# "Names (2019)" before any closing quote, "Names. 2019. " (Chicago author-date), "Names. “Title"
+# (Chicago notes-bibliography) or a lone "Given Family. Title" (computer-science proceedings).
 _ENTRY_START_RE = re.compile(
-    r"^(?:[^\W\d_][\w'’.\-]*\s){0,3}[^\W\d_][\w'’\-]*,\s+(?:[A-Z]\.|[A-Z][a-z]+[ ,])"
-    r"|^[A-Z][^()]{0,120}\((?:\d{4}[a-z]?|n\.\s?d\.)[,)]"
+    r"^(?:[^\W\d_][\w'’.\-]*\s){0,3}[^\W\d_][\w'’\-]*,\s+(?:[A-Z]\.|[A-Z][^\W\d_]+[ ,.])"
+    rf"|^[A-Z][^()”\"]{{0,120}}\((?:\d{{4}}[a-z]?|n\.\s?d\.)[,)]|^[A-Z][^()”\"]{{0,120}}?\.\s{_YEAR}[a-z]?\.\s"
+    r"|^[A-Z][^()“”\"]{0,120}?\.\s[“\"]|^(?:[A-Z][\w'’\-]+\s){1,2}[A-Z][\w'’\-]+\.\s[A-Z]"
 )
+_CUT_INITIAL_RE = re.compile(r"^[A-Z]\.(?:,|\s\()")
+_NAME_CUT_RE = re.compile(r"(?:^|\s)(?:[A-Z][a-z]+|[A-Z]\.)\s[A-Z]\.$")
 _VANCOUVER_RE = re.compile(
     rf"^(?P<names>{NAME_WORD}(?:\s+{NAME_WORD})*\s+[A-Z]{{1,3}}"
     rf"(?:,\s+{NAME_WORD}(?:\s+{NAME_WORD})*\s+[A-Z]{{1,3}})*(?:,?\s+et\s+al)?)\.\s"
@@ -212,7 +219,10 @@ def _opens_entry(line: str, current: list[str]) -> bool:
         return False  # hanging indent: a wrapped line
     previous = current[-1].rstrip()
     ends_entry = previous.endswith((".", ")")) or bool(_URL_RE.search(previous.split()[-1]))
-    return ends_entry and _ENTRY_START_RE.match(line.strip()) is not None
+    if _NAME_CUT_RE.search(previous):
+        return False  # "... Luke A." / "Simon Y. W.": the wrap fell inside a given name
+    # A line opening on a lone initial ("P. (2015).", "G., Burchmore, R.") ends a name list cut by the wrap.
+    return ends_entry and _ENTRY_START_RE.match(line.strip()) is not None and not _CUT_INITIAL_RE.match(line.strip())
 
 
 def parse_references(entries: Sequence[tuple[str, int]]) -> list[Reference]:

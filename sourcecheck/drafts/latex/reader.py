@@ -15,10 +15,12 @@ from dataclasses import dataclass, replace
 from pathlib import Path, PurePosixPath
 from typing import TYPE_CHECKING
 
-from sourcecheck.drafts.bibliography import load_bibliography, parse_bbl
+from sourcecheck.claims import bound_citations, reading_lengths
+from sourcecheck.drafts.bibliography import OUTSIDE_FOLDER, inside_folder, load_bibliography, parse_bbl
 from sourcecheck.drafts.latex.source import Place, Source, load_source
 from sourcecheck.drafts.latex.text import body_blocks
 from sourcecheck.drafts.latex.writer import CiteSpan, TextBlock
+from sourcecheck.limits import Limits
 from sourcecheck.model import Citation, Claim, Draft, Problem, Reference
 from sourcecheck.text import wrapped_sentence_spans
 
@@ -48,15 +50,41 @@ def read_latex(path: Path, display: str, options: ReadOptions) -> Draft:
     end = finish.start() if finish else len(source.text)
     references, found = _bibliography(path, display, options, source, start, end)
     problems += found
-    blocks, found = body_blocks(source, start, end, display)
+    blocks, found = body_blocks(source, start, end, display, options.limits.nesting_depth)
     problems += found
-    claims = block_claims(blocks, source.places, _KeyLookup(references))
+    blocks, found = _bounded(blocks, source.places, options.limits, display)
+    problems += found
+    claims, found = bound_citations(
+        block_claims(blocks, source.places, _KeyLookup(references)), options.limits, display
+    )
+    problems += found
     if not claims:
         problems.append(Problem(display, "no citation commands found in the text"))
     return Draft(display, claims, references, problems)
 
 
 # --- claims ----------------------------------------------------------------------------
+
+
+def _bounded(
+    blocks: list[TextBlock], places: list[Place], limits: Limits, display: str
+) -> tuple[list[TextBlock], list[Problem]]:
+    """Blocks cut to the limits on characters and sentences, each cut named in one line."""
+
+    def where(index: int) -> tuple[str, str]:
+        block = blocks[index]
+        place = places[block.origins[0]] if block.origins else Place(None, 1)
+        return place.file or display, f"line {place.line}"
+
+    lengths, problems = reading_lengths([b.text for b in blocks], limits, display, where)
+    kept = []
+    for block, n in zip(blocks, lengths, strict=True):
+        if n == len(block.text):
+            kept.append(block)
+        elif n:
+            cites = tuple(c for c in block.cites if c.end <= n)
+            kept.append(TextBlock(block.text[:n], block.origins[:n], cites))
+    return kept, problems
 
 
 class _KeyLookup:
@@ -178,6 +206,10 @@ def _bibliography(
             name = name if suffixed else f"{name}.bib"
             bib = path.parent / name
             shown = str(PurePosixPath(PurePosixPath(display).parent, name))
+            if not inside_folder(bib, path.parent):
+                where = place.file or display
+                problems.append(Problem(shown, f"named by \\{command} in {where}, line {place.line}: {OUTSIDE_FOLDER}"))
+                continue
             if not bib.is_file():
                 where = place.file or display
                 problems.append(Problem(shown, f"no such file (named by \\{command} in {where}, line {place.line})"))

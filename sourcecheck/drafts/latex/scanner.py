@@ -29,6 +29,8 @@ class Scanner:
         self.close: dict[int, tuple[int, int]] = {}  # "{" -> (content end, index after the group)
         self.envs: list[str] = []
         self.depth = 0
+        self.max_depth = 100  # groups nested deeper are read flat (the converter's limit)
+        self.too_deep = False
 
     # --- what the converter built on this base provides ------------------------------
 

@@ -16,6 +16,7 @@ from pathlib import Path, PurePosixPath
 
 from sourcecheck.drafts.textfile import decode, read_bytes
 from sourcecheck.errors import DraftUnreadable
+from sourcecheck.limits import Limits
 from sourcecheck.model import Problem
 
 # Deeper nesting than this is a generated loop in disguise, not a real draft.
@@ -100,7 +101,7 @@ class _Loader:
             data = read_bytes(path, display)  # the draft itself: unreadable stops the run
         else:
             try:
-                data = read_bytes(path, display)
+                data = read_bytes(path, display, Limits().file_bytes)
             except DraftUnreadable as error:
                 self.problems.append(Problem(display, str(error).removeprefix(f"{display}: ")))
                 return

@@ -32,8 +32,11 @@ class _Converter(Scanner):
     """One pass over a region of the assembled source: commands, environments, math, citations."""
 
     def content(self, i: int, end: int, w: Writer) -> None:
-        if self.depth >= MAX_NESTING:
+        if self.depth >= self.max_depth:
             # No real draft nests this deep; the words are kept, the markup not read.
+            if not self.too_deep:
+                self.too_deep = True
+                self.problem(i, f"groups nested over {self.max_depth} deep (nesting_depth); read as plain words")
             w.put(re.sub(r"\\[A-Za-z]+|[{}\\]", " ", self.t[i:end]), self.origin(i))
             return
         self.depth += 1
@@ -356,13 +359,16 @@ def _keys(raw: str) -> list[str]:
     return list(dict.fromkeys(k.strip() for k in raw.split(",") if k.strip() and k.strip() != "*"))
 
 
-def body_blocks(source: Source, start: int, end: int, display: str) -> tuple[list[TextBlock], list[Problem]]:
+def body_blocks(
+    source: Source, start: int, end: int, display: str, max_depth: int = MAX_NESTING
+) -> tuple[list[TextBlock], list[Problem]]:
     """Prose blocks of ``source.text[start:end]`` and the problems met reading them.
 
     Headings are left out; footnotes and captions are blocks of their own; a table row is
-    a block.
+    a block. Groups nested deeper than ``max_depth`` are read flat, with one problem.
     """
     converter = _Converter(source, display)
+    converter.max_depth = max_depth
     converter.match_braces(start, end)
     writer = Writer()
     converter.content(start, end, writer)

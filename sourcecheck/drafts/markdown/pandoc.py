@@ -16,7 +16,7 @@ from pathlib import Path, PurePath
 from typing import Any
 
 from sourcecheck.claims import Block, Marker, Resolver, Sentence, citations_from, extract_claims, mask_markup
-from sourcecheck.drafts.bibliography import load_bibliography
+from sourcecheck.drafts.bibliography import OUTSIDE_FOLDER, inside_folder, load_bibliography
 from sourcecheck.model import Citation, Claim, Problem, Reference
 
 # Pandoc User's Guide, "Citation syntax" (from memory): a key starts with a letter, digit
@@ -179,6 +179,9 @@ def draft_bibliography(
     seen: dict[str, str] = {}
     for path, shown in files:
         result.named = True
+        if bibliography is None and not inside_folder(path, base_dir if base_dir is not None else Path.cwd()):
+            result.problems.append(Problem(shown, f"named by the front matter's 'bibliography:': {OUTSIDE_FOLDER}"))
+            continue
         references, problems = load_bibliography(path, shown)
         result.problems.extend(problems)
         for reference in references:

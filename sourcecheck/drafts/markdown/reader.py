@@ -13,7 +13,7 @@ from collections.abc import Iterator
 from pathlib import Path
 from typing import TYPE_CHECKING
 
-from sourcecheck.claims import Block, Resolver, extract_claims
+from sourcecheck.claims import Block, Resolver, bound_blocks, bound_citations, cut_draft, extract_claims
 from sourcecheck.drafts.bibliography.reflist import (
     find_reference_section,
     heading_at,
@@ -21,6 +21,7 @@ from sourcecheck.drafts.bibliography.reflist import (
     split_entries,
 )
 from sourcecheck.drafts.markdown.pandoc import draft_bibliography, extract_keyed_claims, find_key_citations
+from sourcecheck.limits import Limits
 from sourcecheck.model import Draft, Problem
 
 if TYPE_CHECKING:  # the registry imports this module, so only the type comes from there
@@ -47,7 +48,8 @@ def read_markdown(
     """
     if not text.strip():
         return Draft(display, [], [], [Problem(display, "the draft is empty")])
-    problems: list[Problem] = []
+    limits = options.limits if options else Limits()
+    text, problems = cut_draft(text, limits, display)
     lines = visible_lines(text)
     section = find_reference_section(lines)
     bibliography = draft_bibliography(text, display, options.bibliography if options else None, base_dir)
@@ -82,10 +84,14 @@ def read_markdown(
                 "no reference list found (no heading such as References, Bibliography or Works cited)",
             )
         )
+    blocks, cut = bound_blocks(blocks, limits, display)
+    problems.extend(cut)
     if keyed:
         claims = extract_keyed_claims(blocks, Resolver(references), {r.key for r in bibliography.references})
     else:
         claims = extract_claims(blocks, Resolver(references))
+    claims, cut = bound_citations(claims, limits, display)
+    problems.extend(cut)
     if not claims:
         problems.append(Problem(display, "no citation markers found in the text"))
     return Draft(display, claims, references, problems)

@@ -32,7 +32,7 @@ from dataclasses import dataclass
 from pathlib import Path
 from typing import TYPE_CHECKING
 
-from sourcecheck.claims import Block, Resolver, extract_claims
+from sourcecheck.claims import Block, Resolver, bound_blocks, bound_citations, extract_claims
 from sourcecheck.drafts.bibliography.reflist import (
     ReferenceSection,
     find_reference_section,
@@ -42,6 +42,7 @@ from sourcecheck.drafts.bibliography.reflist import (
 )
 from sourcecheck.drafts.markdown.pandoc import draft_bibliography
 from sourcecheck.drafts.pdf.text import marked_pages, strip_line_numbers
+from sourcecheck.limits import Limits
 from sourcecheck.model import Draft, Problem, Reference
 from sourcecheck.pdftext import (
     NO_TEXT,
@@ -81,6 +82,7 @@ class ManuscriptText:
     lines: list[str]
     pages: list[int]
     paragraphs: list[list[int]]
+    cut: str = ""  # why the later pages were not read (the page limit), or ""
 
 
 def read_pdf_manuscript(path: Path, display: str, options: ReadOptions) -> Draft:
@@ -95,8 +97,9 @@ def read_pdf_manuscript(path: Path, display: str, options: ReadOptions) -> Draft
 
 def read_pdf_manuscript_bytes(data: bytes, display: str, options: ReadOptions | None = None) -> Draft:
     """The same from the file's bytes."""
+    limits = options.limits if options else Limits()
     try:
-        text = manuscript_text(data)
+        text = manuscript_text(data, limits.pdf_pages)
     except PdfUnreadable as error:
         return Draft(display, [], [], [Problem(display, str(error))])
     except Exception as error:  # pypdf failing where _pdf did not expect it: still one line
@@ -104,18 +107,18 @@ def read_pdf_manuscript_bytes(data: bytes, display: str, options: ReadOptions | 
     if not any(ch.isalnum() for line in text.lines for ch in line):
         return Draft(display, [], [], [Problem(display, NO_TEXT)])
     try:
-        return _draft(text, display, options.bibliography if options else None)
+        return _draft(text, display, options.bibliography if options else None, limits)
     except Exception as error:  # a bug of ours on odd text must not stop the run either
         return Draft(display, [], [], [Problem(display, f"text could not be processed ({error!r})"[:160])])
 
 
-def manuscript_text(data: bytes) -> ManuscriptText:
+def manuscript_text(data: bytes, max_pages: int | None = None) -> ManuscriptText:
     """The cleaned lines, their pages and paragraphs of the PDF in ``data``.
 
     Raises:
         PdfUnreadable: not a PDF, empty, truncated/corrupt, or locked by a password.
     """
-    raw = read_pdf(data)
+    raw = read_pdf(data, max_pages=max_pages)
     texts = [normalize_chars(page) for page in marked_pages(data, raw.pages)]
     pages = drop_running_lines(strip_line_numbers([split_lines(page) for page in texts]))
     median = typical_length(pages)
@@ -131,7 +134,7 @@ def manuscript_text(data: bytes) -> ManuscriptText:
             paragraphs[-1].extend(page_paragraphs.pop(0))
         paragraphs.extend(page_paragraphs)
     _mend_hyphens(lines, paragraphs, vocabulary("\n".join(texts)))
-    return ManuscriptText([line.replace(SOFT_HYPHEN, "") for line in lines], page_of, paragraphs)
+    return ManuscriptText([line.replace(SOFT_HYPHEN, "") for line in lines], page_of, paragraphs, raw.cut)
 
 
 def _indexed(page: list[str], groups: list[list[str]], first: int) -> list[list[int]]:
@@ -183,9 +186,9 @@ def _title_view(lines: list[str]) -> list[str]:
     return [f"**{line}**" if line and heading_at(["", line], 1) else line for line in lines]
 
 
-def _draft(text: ManuscriptText, display: str, bibliography_path: Path | None) -> Draft:
+def _draft(text: ManuscriptText, display: str, bibliography_path: Path | None, limits: Limits) -> Draft:
     lines = text.lines
-    problems: list[Problem] = []
+    problems: list[Problem] = [Problem(display, text.cut)] if text.cut else []
     references: list[Reference] = []
     skip = range(0)
     section: ReferenceSection | None = find_reference_section(_title_view(lines))
@@ -208,7 +211,10 @@ def _draft(text: ManuscriptText, display: str, bibliography_path: Path | None) -
         where = f"'{section.title}' (line {section.heading_index + 1})"
         problems.append(Problem(display, f"the reference list under {where} has no entries"))
     blocks = [_block(lines, paragraph) for paragraph in text.paragraphs if not any(i in skip for i in paragraph)]
-    claims = extract_claims([block for block in blocks if block.text.strip()], Resolver(references))
+    blocks, cut = bound_blocks([block for block in blocks if block.text.strip()], limits, display)
+    problems.extend(cut)
+    claims, cut = bound_citations(extract_claims(blocks, Resolver(references)), limits, display)
+    problems.extend(cut)
     if not claims:
         problems.append(Problem(display, "no citation markers found in the text"))
     return Draft(display, claims, references, problems)

@@ -120,8 +120,8 @@ def _multiply(a: Sequence[float], b: Sequence[float]) -> list[float]:
         return [1.0, 0.0, 0.0, 1.0, 0.0, 0.0]
 
 
-def page_runs(data: bytes) -> list[list[Run] | None]:
-    """The runs of every page, None for a page pypdf could not walk.
+def page_runs(data: bytes, max_pages: int | None = None) -> list[list[Run] | None]:
+    """The runs of every page (the first ``max_pages``), None for a page pypdf could not walk.
 
     Call only on data :func:`sourcecheck.pdftext.reader.read_pdf` has accepted; any failure
     here is left to the caller, which then keeps read_pdf's plain text.
@@ -129,7 +129,9 @@ def page_runs(data: bytes) -> list[list[Run] | None]:
     pages: list[list[Run] | None] = []
     with quiet_pypdf():
         reader: PdfReader = open_pdf(data)
-        for page in reader.pages:
+        for number, page in enumerate(reader.pages, start=1):
+            if max_pages is not None and number > max_pages:
+                break
             collector = _Collector()
             try:
                 page.extract_text(visitor_text=collector.text, visitor_operand_before=collector.operator)
@@ -194,7 +196,7 @@ def marked_pages(data: bytes, plain: Sequence[str]) -> list[str]:
     own text for it, so nothing but the markers can differ from the sources stage's text.
     """
     try:
-        pages = page_runs(data)
+        pages = page_runs(data, len(plain))
     except Exception:
         return list(plain)
     if len(pages) != len(plain):

@@ -14,7 +14,9 @@ encrypted package, as is a legacy binary .doc renamed to .docx.
 from __future__ import annotations
 
 import io
+import lzma
 import zipfile
+import zlib
 from dataclasses import dataclass, field
 
 import docx
@@ -22,6 +24,8 @@ from docx.opc.constants import RELATIONSHIP_TYPE as RT
 from docx.opc.exceptions import PackageNotFoundError
 from lxml import etree
 
+from sourcecheck.drafts.word.members import member_problem
+from sourcecheck.limits import Limits
 from sourcecheck.model import Problem
 
 # First bytes of an OLE compound file (MS-CFB), the container of encrypted OOXML and .doc.
@@ -29,6 +33,9 @@ _OLE_MAGIC = b"\xd0\xcf\x11\xe0\xa1\xb1\x1a\xe1"
 # OLE directory entries name streams in UTF-16LE: these two tell the two OLE cases apart.
 _ENCRYPTED_STREAM = "EncryptedPackage".encode("utf-16-le")
 _LEGACY_WORD_STREAM = "WordDocument".encode("utf-16-le")
+# How a damaged zip member fails while it is inflated: zipfile's own errors, then the
+# decompressors' (a corrupt deflate stream raises zlib.error, an LZMA one LZMAError).
+_DAMAGED = (zipfile.BadZipFile, OSError, EOFError, RuntimeError, zlib.error, lzma.LZMAError)
 # Entities off and no network: a draft is untrusted input.
 _PARSER = etree.XMLParser(resolve_entities=False, no_network=True, huge_tree=False)
 
@@ -45,17 +52,28 @@ class WordPackage:
     problems: list[Problem] = field(default_factory=list)
 
 
-def open_package(data: bytes, display: str) -> tuple[WordPackage | None, Problem | None]:
-    """The package's parts, or None and the one problem that says why there are none."""
+def open_package(data: bytes, display: str, limits: Limits | None = None) -> tuple[WordPackage | None, Problem | None]:
+    """The package's parts, or None and the one problem that says why there are none.
+
+    Every zip member's size (declared and inflated) is checked against ``limits`` and
+    every XML part for a DTD before python-docx opens the package (:mod:`.members`).
+    """
     if data.startswith(_OLE_MAGIC):
         return None, Problem(display, _ole_message(data))
     if not zipfile.is_zipfile(io.BytesIO(data)):
         return None, Problem(display, "not a Word document (not a zip file)")
     try:
+        with zipfile.ZipFile(io.BytesIO(data)) as archive:
+            refused = member_problem(archive, limits or Limits())
+    except (*_DAMAGED, NotImplementedError, ValueError) as error:
+        return None, Problem(display, f"cannot be read as a Word document ({_short(error)})")
+    if refused:
+        return None, Problem(display, refused)
+    try:
         document = docx.Document(io.BytesIO(data))
     except (KeyError, ValueError, PackageNotFoundError, zipfile.BadZipFile, etree.XMLSyntaxError) as error:
         return None, Problem(display, _not_word_message(data, error))
-    except (OSError, EOFError, RuntimeError) as error:  # damaged zip members, bad CRC, zip encryption
+    except _DAMAGED as error:  # damaged zip members, bad CRC, zip encryption
         return None, Problem(display, f"cannot be read as a Word document ({_short(error)})")
     body = document.element.body
     if body is None:

@@ -27,13 +27,15 @@ from __future__ import annotations
 
 import re
 from collections.abc import Iterator, Sequence
+from dataclasses import replace
 from pathlib import Path
 from typing import TYPE_CHECKING
 
-from sourcecheck.claims import Block, Resolver, extract_claims
+from sourcecheck.claims import Block, Resolver, bound_blocks, bound_citations, extract_claims
 from sourcecheck.drafts.bibliography.reflist import find_reference_section, parse_references
 from sourcecheck.drafts.word.package import WordPackage, open_package
 from sourcecheck.drafts.word.text import Numbering, Paragraph, Styles, body_paragraphs, note_paragraphs
+from sourcecheck.limits import Limits
 from sourcecheck.model import Draft, Problem
 
 if TYPE_CHECKING:
@@ -54,20 +56,20 @@ def read_word(path: Path, display: str, options: ReadOptions) -> Draft:
     except OSError as error:
         reason = error.strerror or error.__class__.__name__
         return Draft(display, [], [], [Problem(display, f"cannot be opened ({reason})")])
-    return read_word_bytes(data, display)
+    return read_word_bytes(data, display, options.limits)
 
 
-def read_word_bytes(data: bytes, display: str) -> Draft:
+def read_word_bytes(data: bytes, display: str, limits: Limits | None = None) -> Draft:
     """The same from the file's bytes."""
-    package, problem = open_package(data, display)
+    package, problem = open_package(data, display, limits)
     if package is None:
         return Draft(display, [], [], [problem] if problem else [])
-    draft = _read_package(package, display)
+    draft = _read_package(package, display, limits or Limits())
     draft.problems[:0] = package.problems
     return draft
 
 
-def _read_package(package: WordPackage, display: str) -> Draft:
+def _read_package(package: WordPackage, display: str, limits: Limits) -> Draft:
     styles = Styles(package.styles)
     body, cited_notes = body_paragraphs(package.body, styles, Numbering(package.numbering))
     notes = note_paragraphs(
@@ -103,7 +105,12 @@ def _read_package(package: WordPackage, display: str) -> Draft:
         for position, p in enumerate([*body, *notes])
         if p.text.strip() and p.heading is None and position not in skip
     ]
-    claims = extract_claims(blocks, Resolver(references))
+    blocks, cut = bound_blocks(blocks, limits, display)
+    problems.extend(cut)
+    claims, cut = bound_citations(extract_claims(blocks, Resolver(references)), limits, display)
+    problems.extend(cut)
+    # Word has no lines: the numbers are paragraphs, and the reports must say so.
+    claims = [replace(c, unit="paragraph") for c in claims]
     if not claims:
         problems.append(Problem(display, "no citation markers found in the text"))
     return Draft(display, claims, references, problems)

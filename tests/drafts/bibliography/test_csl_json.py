@@ -46,3 +46,25 @@ def test_not_an_array() -> None:
     refs, problems = parse_csl_json('"just a string"', "refs.json")
     assert refs == []
     assert problems[0].message == "CSL-JSON must be an array of items; no entries read"
+
+
+def test_json_nested_past_the_limit_is_one_problem_not_a_crash() -> None:
+    from tests.hostile import deep_json
+
+    references, problems = parse_csl_json(deep_json(100_000), "refs.json")
+    assert references == []
+    assert [p.message for p in problems] == ["JSON nested over 100 deep (nesting_depth); no entries read"]
+    # Brackets inside strings are text, not nesting.
+    items, found = parse_csl_json('[{"id": "a", "type": "book", "title": "' + "[" * 500 + '"}]', "refs.json")
+    assert [r.key for r in items] == ["a"] and found == []
+
+
+def test_load_bibliography_refuses_a_file_over_the_size_limit(tmp_path) -> None:
+    from sourcecheck.drafts.bibliography import load_bibliography
+    from sourcecheck.limits import Limits
+
+    path = tmp_path / "refs.json"
+    path.write_text('[{"id": "a", "type": "book"}]' + " " * 2000, encoding="utf-8")
+    references, problems = load_bibliography(path, "refs.json", Limits(file_bytes=1024))
+    assert references == []
+    assert [p.message for p in problems] == ["2.0 KiB, over the limit of 1 KiB (file_bytes); not read"]

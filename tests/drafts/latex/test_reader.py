@@ -232,3 +232,34 @@ def test_latex_draft_and_its_markdown_twin_give_the_same_claims(tmp_path: Path) 
 
     assert shape(latex) == shape(markdown)
     assert len(latex.claims) == 5
+
+
+def test_a_bibliography_named_outside_the_drafts_folder_is_refused(tmp_path: Path) -> None:
+    # Like \input, a file the draft names is read only inside the draft's folder; --bib is the user's own choice.
+    secret = write(tmp_path, "elsewhere/secret.bib", BIB)
+    draft = read(
+        write(
+            tmp_path,
+            "paper/paper.tex",
+            "\\bibliography{../elsewhere/secret}\n\\addbibresource{" + str(secret) + "}\n"
+            "\\begin{document}\nCarbon rose \\citep{okafor2019}.\n\\end{document}\n",
+        )
+    )
+    assert draft.references == []
+    refused = [p for p in draft.problems if "outside the draft's folder" in p.message]
+    assert len(refused) == 2 and all("give it with --bib" in p.message for p in refused)
+    assert "named by \\bibliography in paper.tex, line 1" in refused[0].message
+    assert "Soil Journal" not in " ".join(p.message for p in draft.problems)
+    given = read(tmp_path / "paper" / "paper.tex", bib=secret)
+    assert [r.key for r in given.references] == ["okafor2019", "lin2020"]
+
+
+def test_groups_nested_past_the_limit_are_read_flat_with_one_line(tmp_path: Path) -> None:
+    from tests.hostile import deep_latex
+
+    draft = read(write(tmp_path, "paper.tex", deep_latex(5000)))
+    deep = [p for p in draft.problems if "nesting_depth" in p.message]
+    assert len(deep) == 1 and "groups nested over 100 deep" in deep[0].message
+    assert draft.claims == []  # read flat, the \cite is words: nothing to check, and no crash
+    shallow = read(write(tmp_path, "shallow.tex", deep_latex(50)))
+    assert [c.text for c in shallow.claims] == ["Nests rose by 18% [a]."] and shallow.problems == []

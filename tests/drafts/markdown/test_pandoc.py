@@ -185,3 +185,30 @@ def test_draft_without_keys_is_read_as_before() -> None:
     draft = read_markdown(text, "draft.md")
     assert draft.problems == []
     assert [(c.label, c.key) for c in draft.claims[0].citations] == [("Okafor, 2019", "okafor2019")]
+
+
+@pytest.mark.parametrize("named", ["../elsewhere/refs.bib", "ABSOLUTE"])
+def test_front_matter_bibliography_outside_the_drafts_folder_is_refused(tmp_path: Path, named: str) -> None:
+    outside = tmp_path / "elsewhere" / "refs.bib"
+    outside.parent.mkdir()
+    outside.write_text("@article{okafor2019, title = {Secret title}, year = {2019}}\n", encoding="utf-8")
+    folder = tmp_path / "paper"
+    folder.mkdir()
+    name = str(outside) if named == "ABSOLUTE" else named
+    text = f"---\nbibliography: {name}\n---\n\nCarbon rose [@okafor2019].\n"
+    bibliography = draft_bibliography(text, "paper/draft.md", base_dir=folder)
+    assert bibliography.references == []
+    assert [p.message for p in bibliography.problems] == [
+        "named by the front matter's 'bibliography:': "
+        "refused (outside the draft's folder; give it with --bib to read it)"
+    ]
+    # The same file given by the user (--bib) is read.
+    assert [r.key for r in draft_bibliography(text, "paper/draft.md", outside, folder).references] == ["okafor2019"]
+
+
+def test_a_front_matter_name_no_file_can_have_is_refused_not_a_crash(tmp_path: Path) -> None:
+    # Found by scripts/fuzz.py: a NUL byte in the name made path resolution raise.
+    text = "---\nbibliography: a\x00b.bib\n---\n\nCarbon rose [@okafor2019].\n"
+    bibliography = draft_bibliography(text, "draft.md", base_dir=tmp_path)
+    assert bibliography.references == []
+    assert ["outside the draft's folder" in p.message for p in bibliography.problems] == [True]
