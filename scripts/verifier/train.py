@@ -4,6 +4,7 @@ Usage::
 
     python scripts/verifier/train.py --measure 800            # pairs per second, then stop
     python scripts/verifier/train.py --epochs 1 --sample snli=800 cad=3000 citint=800 --max-minutes 72
+    python scripts/verifier/train.py --epochs 4 --sample --lr 5e-5 --max-minutes 66   # the shipped model
 
 Reads ``pairs.jsonl`` written by build_data.py. Every epoch trains on a fresh seeded sample
 of each data set: ``--sample NAME=N`` caps a data set (snli, cad, scifact, counterfactual,
