@@ -40,7 +40,8 @@ from rapidfuzz import fuzz
 from sourcecheck.index import DENSE_WEIGHT, RANK_FEATURES, RERANK_DEPTH, Ranker, rank_features
 from sourcecheck.judge import EVIDENCE_SEARCHED, FEATURE_NAMES, Calibration, Features, features_of, judge
 from sourcecheck.model import Band, Hit
-from sourcecheck.pipeline import CachedScorer, Prepared, prepare
+from sourcecheck.pipeline import Prepared, prepare
+from sourcecheck.verdicts import CachedScorer
 
 ROOT = Path(__file__).resolve().parent.parent
 

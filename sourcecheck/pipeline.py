@@ -7,8 +7,7 @@ only the dataclasses of :mod:`sourcecheck.model`; bad input inside a file become
 
 from __future__ import annotations
 
-import hashlib
-from collections.abc import Callable, Sequence
+from collections.abc import Callable
 from dataclasses import dataclass, field
 from pathlib import Path
 from typing import TypedDict, Unpack
@@ -17,18 +16,9 @@ import numpy as np
 
 from sourcecheck.claims import claim_query
 from sourcecheck.drafts import read_draft
-from sourcecheck.errors import ModelUnavailable, SourcesUnreadable
+from sourcecheck.errors import SourcesUnreadable
 from sourcecheck.index import Cache, Encoder, EvidenceIndex, Ranker, default_cache_dir, resolve_model_path, text_key
-from sourcecheck.judge import (
-    EVIDENCE_SEARCHED,
-    VERIFIER_DIR,
-    VERIFIER_FILE,
-    Calibration,
-    CitationJudge,
-    Search,
-    Verifier,
-    load_calibration,
-)
+from sourcecheck.judge import EVIDENCE_SEARCHED, Calibration, CitationJudge, Search, Verifier, load_calibration
 from sourcecheck.limits import Limits
 from sourcecheck.model import (
     ClaimResult,
@@ -52,6 +42,7 @@ from sourcecheck.sources import (
     match_sources,
     read_source,
 )
+from sourcecheck.verdicts import CachedScorer, make_verifier
 
 #: Called as ``progress(stage, done, total)`` while sources are read and embedded.
 ProgressHook = Callable[[str, int, int], None]
@@ -334,46 +325,6 @@ def run_many(draft_paths: list[Path], sources_dir: Path, **options: Unpack[RunOp
         judge_all(prepare_draft(draft, shared, stats), path, sources_dir)
         for draft, path in zip(drafts, draft_paths, strict=True)
     ]
-
-
-class CachedScorer:
-    """The verifier's probabilities, cached per set of pairs, so a warm run loads no model.
-
-    Keyed by the model file's hash and the pairs' text; stored (and handed back, even when
-    fresh) as float32, so a cold and a warm run judge on the very same numbers.
-    """
-
-    def __init__(self, verifier: Verifier, cache: Cache, stats: RunStats) -> None:
-        self.verifier = verifier
-        self.cache = cache
-        self.stats = stats
-        self._fingerprint: str | None = None
-
-    @property
-    def fingerprint(self) -> str:
-        if self._fingerprint is None:
-            self._fingerprint = hashlib.sha256(self.verifier.model_path.read_bytes()).hexdigest()
-        return self._fingerprint
-
-    def score(self, pairs: Sequence[tuple[str, str]]) -> np.ndarray:
-        key = text_key(self.fingerprint, *(f"{claim}\x1f{evidence}" for claim, evidence in pairs))
-        cached = self.cache.load_vectors("verdicts", key, len(pairs))
-        if cached is not None:
-            return cached.astype(np.float64)
-        fresh = np.asarray(self.verifier.score(pairs), dtype=np.float32)
-        self.cache.save_vectors("verdicts", key, fresh)
-        self.stats.pairs_verified += len(pairs)
-        return fresh.astype(np.float64)
-
-
-def make_verifier(path: str | None) -> Verifier:
-    """The shipped verifier, or the local model folder ``path`` (``--verifier``)."""
-    if path is None:
-        return Verifier(VERIFIER_DIR)
-    folder = Path(path).expanduser()
-    if not (folder / VERIFIER_FILE).is_file():
-        raise ModelUnavailable(f"{folder}: no verifier model ({VERIFIER_FILE}) in folder")
-    return Verifier(folder)
 
 
 def make_search(index: EvidenceIndex, calibration: Calibration) -> Search:

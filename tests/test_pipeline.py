@@ -179,7 +179,7 @@ class _CountingVerifier:
 
 def test_verifier_readings_are_cached_so_a_warm_run_asks_nothing(tmp_path: Path) -> None:
     from sourcecheck.index import Cache
-    from sourcecheck.pipeline import CachedScorer
+    from sourcecheck.verdicts import CachedScorer
 
     weights = tmp_path / "model.onnx"
     weights.write_bytes(b"weights")
