@@ -11,6 +11,17 @@ STAMP := $(VENV)/.installed
 
 .PHONY: install browser demo test lint format bench samples clean
 
+# Debian packages the tests read: WordNet 3.0 (scripts/verifier antonyms, read by nltk).
+DEBIAN_PACKAGES := wordnet-base
+DEBIAN_STAMP := $(VENV)/.debian
+
+$(DEBIAN_STAMP):
+	@if [ ! -d /usr/share/wordnet ]; then \
+		if [ "$$(id -u)" = 0 ]; then apt-get update -qq && apt-get install -y -qq $(DEBIAN_PACKAGES); \
+		else sudo apt-get update -qq && sudo apt-get install -y -qq $(DEBIAN_PACKAGES); fi; \
+	fi
+	@mkdir -p $(VENV) && touch $(DEBIAN_STAMP)
+
 $(STAMP): pyproject.toml Makefile
 	$(PYTHON) -m venv $(VENV)
 	$(BIN)/python -m pip install --quiet --upgrade pip
@@ -28,7 +39,7 @@ browser:
 demo: $(STAMP)
 	$(BIN)/sourcecheck check sample_manuscript/draft.md --sources sample_sources
 
-test: $(STAMP) browser
+test: $(STAMP) $(DEBIAN_STAMP) browser
 	$(BIN)/ruff check sourcecheck tests bench scripts
 	$(BIN)/mypy
 	$(BIN)/python -m pytest -q

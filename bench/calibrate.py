@@ -41,6 +41,7 @@ from sourcecheck.index import DENSE_WEIGHT, RANK_FEATURES, RERANK_DEPTH, Ranker,
 from sourcecheck.judge import EVIDENCE_SEARCHED, FEATURE_NAMES, Calibration, Features, features_of, judge
 from sourcecheck.model import Band, Hit
 from sourcecheck.pipeline import Prepared, prepare
+from sourcecheck.verdicts import CachedScorer
 
 ROOT = Path(__file__).resolve().parent.parent
 
@@ -201,8 +202,8 @@ def youden_threshold(scores: np.ndarray, positive: np.ndarray) -> float:
     return cut
 
 
-def f1_threshold(scores: np.ndarray, positive: np.ndarray) -> float:
-    """The cut that maximises F1 for the positive class."""
+def f1_threshold(scores: np.ndarray, positive: np.ndarray, beta: float = 1.0) -> float:
+    """The cut that maximises F-beta for the positive class (F1 by default; beta < 1 weighs precision)."""
     best, cut = -1.0, 0.5
     for t in np.unique(scores):
         predicted = scores >= t
@@ -210,9 +211,9 @@ def f1_threshold(scores: np.ndarray, positive: np.ndarray) -> float:
         if tp == 0:
             continue
         precision, recall = tp / predicted.sum(), tp / positive.sum()
-        f1 = 2 * precision * recall / (precision + recall)
-        if f1 > best:
-            best, cut = f1, float(t)
+        f = (1 + beta**2) * precision * recall / (beta**2 * precision + recall)
+        if f > best:
+            best, cut = f, float(t)
     return cut
 
 
@@ -234,11 +235,17 @@ def main() -> int:
     parser.add_argument("corpus", type=Path)
     parser.add_argument("--cache", type=Path, default=ROOT / "bench" / "out" / "cache")
     parser.add_argument("--write", action="store_true", help="store the fitted parameters in the package")
+    parser.add_argument("--verifier", help="another verifier model folder (default: the shipped one)")
     args = parser.parse_args()
 
     prepared = prepare(
-        args.corpus / "draft.md", args.corpus / "sources", mapping=args.corpus / "mapping.csv", cache_dir=args.cache
+        args.corpus / "draft.md",
+        args.corpus / "sources",
+        mapping=args.corpus / "mapping.csv",
+        cache_dir=args.cache,
+        verifier=args.verifier,
     )
+    scorer = CachedScorer(prepared.verifier, prepared.cache, prepared.stats)
     pairs = [p for p in load_pairs(args.corpus, prepared) if p.source is not None]
     fit = [p for p in pairs if p.split == "fit"]
     holdout = [p for p in pairs if p.split == "holdout"]
@@ -266,7 +273,7 @@ def main() -> int:
     print(f"chosen: {ranker.margin}")
 
     def features(pair: Pair) -> Features:
-        return features_of(pair.query, hits_for(prepared, pair, best_weight, ranker))
+        return features_of(pair.query, hits_for(prepared, pair, best_weight, ranker), scorer)
 
     x_fit = np.array([features(p).vector() for p in fit])
     y_fit = np.array([p.label == "SUPPORT" for p in fit], dtype=float)
@@ -281,9 +288,19 @@ def main() -> int:
     adrift_below = youden_threshold(topical_fit, related_fit)
     score_fit = np.array([provisional.score(features(p)) for p in fit])
     anchored_at = max(f1_threshold(score_fit, y_fit.astype(bool)), adrift_below)
-    calibration = Calibration(tuple(weights), bias, anchored_at, adrift_below, "fit")
+    # The verifier's "reads against" cut: best F0.5 for CONTRADICT among the fit split's
+    # SUPPORT and CONTRADICT pairs, on P(contradicts) where it beats P(supports). F0.5 weighs
+    # precision twice: a false "conflict" on a faithful claim costs a reader more than a
+    # missed one, which the fitted score still marks down.
+    opposed = [p for p in fit if p.label in ("SUPPORT", "CONTRADICT")]
+    readings = [features(p) for p in opposed]
+    against = np.array([f.contradict if f.contradict > f.entail else 0.0 for f in readings])
+    contradict_at = max(f1_threshold(against, np.array([p.label == "CONTRADICT" for p in opposed]), beta=0.5), 0.5)
+    calibration = Calibration(tuple(weights), bias, anchored_at, adrift_below, "fit", contradict_at=contradict_at)
     print("\nweights:", dict(zip(FEATURE_NAMES, np.round(weights, 3), strict=True)), "bias:", round(bias, 3))
-    print(f"thresholds: anchored_at {anchored_at:.3f}, adrift_below {adrift_below:.3f}")
+    print(
+        f"thresholds: anchored_at {anchored_at:.3f}, adrift_below {adrift_below:.3f}, contradict_at {contradict_at:.3f}"
+    )
 
     at1, at3, _, n = hit_rates(prepared, holdout, best_weight, ranker)
     scores = np.array([calibration.score(features(p)) for p in holdout])
@@ -297,7 +314,7 @@ def main() -> int:
     counts: dict[str, dict[str, int]] = {}
     for pair in holdout:
         hits = hits_for(prepared, pair, best_weight, ranker)
-        band = judge(pair.query, _citation(pair), None, pair.source or "", hits, calibration).band
+        band = judge(pair.query, _citation(pair), None, pair.source or "", hits, calibration, scorer=scorer).band
         counts.setdefault(pair.label, {b.value: 0 for b in Band})[band.value] += 1
     print("bands per gold label (holdout):")
     for label, row in sorted(counts.items()):
@@ -308,7 +325,11 @@ def main() -> int:
             "features": list(FEATURE_NAMES),
             "weights": [round(float(w), 6) for w in weights],
             "bias": round(bias, 6),
-            "thresholds": {"anchored_at": round(anchored_at, 4), "adrift_below": round(adrift_below, 4)},
+            "thresholds": {
+                "anchored_at": round(anchored_at, 4),
+                "adrift_below": round(adrift_below, 4),
+                "contradict_at": round(contradict_at, 4),
+            },
             "dense_weight": best_weight,
             "ranking": {
                 "how": "pairwise logistic regression over passages of each fit claim's cited source",

@@ -50,6 +50,7 @@ def main(argv: list[str] | None = None) -> int:
     parser.add_argument("--split", choices=("holdout", "fit", "all"), default="holdout")
     parser.add_argument("--rebuild", action="store_true", help="rebuild the draft and PDFs")
     parser.add_argument("--cache", type=Path, default=ROOT / "bench" / "out" / "cache")
+    parser.add_argument("--verifier", help="another verifier model folder (default: the shipped one)")
     args = parser.parse_args(argv)
 
     if args.rebuild or not (args.out / "gold.jsonl").is_file():
@@ -58,7 +59,11 @@ def main(argv: list[str] | None = None) -> int:
             return code
     started = time.perf_counter()
     prepared = prepare(
-        args.out / "draft.md", args.out / "sources", mapping=args.out / "mapping.csv", cache_dir=args.cache
+        args.out / "draft.md",
+        args.out / "sources",
+        mapping=args.out / "mapping.csv",
+        cache_dir=args.cache,
+        verifier=args.verifier,
     )
     checker = make_checker(prepared)
     claims = prepared.draft.claims

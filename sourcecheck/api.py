@@ -30,6 +30,7 @@ def check(
     format_in: str | None = None,
     mapping: str | os.PathLike[str] | None = None,
     model: str | None = None,
+    verifier: str | os.PathLike[str] | None = None,
     cache: str | os.PathLike[str] | None = None,
     progress: Progress | None = None,
     stats: RunStats | None = None,
@@ -45,6 +46,7 @@ def check(
         format_in: read the draft as ``markdown``, ``word``, ``latex`` or ``pdf``, whatever its suffix.
         mapping: CSV (``key,file``) or TOML file pinning references to files.
         model: another local sentence-transformers model folder.
+        verifier: another local entailment verifier folder (an ONNX model and its tokenizer.json).
         cache: where passages and vectors are cached (default: the user cache directory).
         progress: called as ``progress(stage, done, total)`` while sources are read and embedded.
         stats: counters of what the run cost, filled in as it goes.
@@ -66,6 +68,7 @@ def check(
         format_in=format_in,
         mapping=mapping,
         model=model,
+        verifier=verifier,
         cache=cache,
         progress=progress,
         stats=stats,
@@ -82,6 +85,7 @@ def check_many(
     format_in: str | None = None,
     mapping: str | os.PathLike[str] | None = None,
     model: str | None = None,
+    verifier: str | os.PathLike[str] | None = None,
     cache: str | os.PathLike[str] | None = None,
     progress: Progress | None = None,
     stats: RunStats | None = None,
@@ -105,6 +109,7 @@ def check_many(
         Path(sources),
         mapping=Path(mapping) if mapping is not None else None,
         model=model,
+        verifier=str(verifier) if verifier is not None else None,
         cache_dir=Path(cache) if cache is not None else None,
         progress=progress or _quiet,
         stats=stats,

@@ -59,6 +59,9 @@ def _run_options() -> argparse.ArgumentParser:
         "--map", type=Path, metavar="FILE", help="CSV (key,file) or TOML mapping of references to PDFs"
     )
     options.add_argument("--model", metavar="PATH", help="local sentence-transformers model folder (default: bundled)")
+    options.add_argument(
+        "--verifier", metavar="PATH", help="local entailment verifier folder (default: the one shipped in the package)"
+    )
     options.add_argument("--cache", type=Path, metavar="DIR", help="cache folder (default: the user cache directory)")
     options.add_argument("--bib", type=Path, metavar="FILE", help="bibliography file for the draft's citation keys")
     options.add_argument("--format-in", choices=FORMATS_IN, help="read the draft as this format, whatever its suffix")

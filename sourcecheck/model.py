@@ -321,6 +321,7 @@ class RunStats:
     sources_from_cache: int = 0
     passages_embedded: int = 0
     claims_embedded: int = 0
+    pairs_verified: int = 0  # claim-sentence pairs the verifier read (not from the cache)
     model_loaded: bool = False
 
 

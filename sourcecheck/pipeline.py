@@ -18,7 +18,7 @@ from sourcecheck.claims import claim_query
 from sourcecheck.drafts import read_draft
 from sourcecheck.errors import SourcesUnreadable
 from sourcecheck.index import Cache, Encoder, EvidenceIndex, Ranker, default_cache_dir, resolve_model_path, text_key
-from sourcecheck.judge import EVIDENCE_SEARCHED, Calibration, CitationJudge, Search, load_calibration
+from sourcecheck.judge import EVIDENCE_SEARCHED, Calibration, CitationJudge, Search, Verifier, load_calibration
 from sourcecheck.limits import Limits
 from sourcecheck.model import (
     ClaimResult,
@@ -42,6 +42,7 @@ from sourcecheck.sources import (
     match_sources,
     read_source,
 )
+from sourcecheck.verdicts import CachedScorer, make_verifier
 
 #: Called as ``progress(stage, done, total)`` while sources are read and embedded.
 ProgressHook = Callable[[str, int, int], None]
@@ -160,6 +161,8 @@ class Prepared:
     cache: Cache
     #: Why each unmatched reference has no source: its closest file and what kept it out.
     refusals: dict[str, MatchRefusal] = field(default_factory=dict)
+    verifier: Verifier | None = None
+    stats: RunStats = field(default_factory=RunStats)
 
 
 @dataclass
@@ -177,6 +180,7 @@ class PreparedSources:
     cache: Cache
     mapping: dict[str, str] | None
     problems: list[Problem]
+    verifier: Verifier
 
 
 def prepare_sources(
@@ -189,6 +193,7 @@ def prepare_sources(
     stats: RunStats | None = None,
     limits: Limits | None = None,
     follow_links: bool = False,
+    verifier: str | None = None,
 ) -> PreparedSources:
     """Read every PDF under ``sources_dir`` (from the cache where known), embed and index the passages."""
     stats = stats if stats is not None else RunStats()
@@ -196,6 +201,7 @@ def prepare_sources(
     mapping_table = load_mapping(mapping) if mapping is not None else None
     cache = Cache(cache_dir if cache_dir is not None else default_cache_dir())
     encoder = Encoder(model_path)
+    reader = make_verifier(verifier)
     sources, source_problems = read_sources(
         sources_dir, cache, progress, stats, limits=limits, follow_links=follow_links
     )
@@ -209,6 +215,7 @@ def prepare_sources(
         cache=cache,
         mapping=mapping_table,
         problems=source_problems,
+        verifier=reader,
     )
 
 
@@ -234,6 +241,8 @@ def prepare_draft(draft: Draft, shared: PreparedSources, stats: RunStats | None 
         encoder=shared.encoder,
         problems=[*draft.problems, *shared.problems, *match_problems],
         cache=shared.cache,
+        verifier=shared.verifier,
+        stats=stats,
     )
 
 
@@ -248,6 +257,7 @@ def prepare(
     stats: RunStats | None = None,
     read_options: ReadOptions | None = None,
     follow_links: bool = False,
+    verifier: str | None = None,
 ) -> Prepared:
     """Read the draft and the sources, build the index, match references, embed claims.
 
@@ -267,6 +277,7 @@ def prepare(
         stats=stats,
         limits=read_options.limits,
         follow_links=follow_links,
+        verifier=verifier,
     )
     return prepare_draft(draft, shared, stats)
 
@@ -281,6 +292,7 @@ class RunOptions(TypedDict, total=False):
     stats: RunStats | None
     read_options: ReadOptions | None
     follow_links: bool
+    verifier: str | None
 
 
 def run(draft_path: Path, sources_dir: Path, **options: Unpack[RunOptions]) -> Report:
@@ -307,6 +319,7 @@ def run_many(draft_paths: list[Path], sources_dir: Path, **options: Unpack[RunOp
         stats=stats,
         limits=read_options.limits if read_options is not None else None,
         follow_links=options.get("follow_links", False),
+        verifier=options.get("verifier"),
     )
     return [
         judge_all(prepare_draft(draft, shared, stats), path, sources_dir)
@@ -337,6 +350,7 @@ def make_checker(prepared: Prepared) -> CitationJudge:
         sources={s.path: s for s in prepared.sources},
         calibration=calibration,
         search=make_search(prepared.index, calibration),
+        scorer=CachedScorer(prepared.verifier, prepared.cache, prepared.stats) if prepared.verifier else None,
     )
 
 

@@ -51,6 +51,7 @@ def check_options(args: argparse.Namespace) -> dict[str, Any]:
         "format_in": args.format_in,
         "mapping": args.map,
         "model": args.model,
+        "verifier": getattr(args, "verifier", None),
         "cache": args.cache,
         "follow_links": bool(getattr(args, "follow_links", False)),
     }

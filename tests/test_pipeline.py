@@ -161,3 +161,37 @@ def test_corrupt_cache_entry_is_rebuilt_with_a_warning(cold, demo_cache: Path, t
     assert stats.passages_embedded > 0
     assert any("rebuilt" in p.message for p in report.problems)
     assert re.search(r"\.npy", " ".join(p.message for p in report.problems))
+
+
+class _CountingVerifier:
+    """Stands in for the verifier: fixed probabilities, and a count of the pairs it was asked."""
+
+    def __init__(self, path: Path) -> None:
+        self.model_path = path
+        self.asked = 0
+
+    def score(self, pairs):
+        import numpy as np
+
+        self.asked += len(pairs)
+        return np.tile(np.array([0.7, 0.2, 0.1]), (len(pairs), 1))
+
+
+def test_verifier_readings_are_cached_so_a_warm_run_asks_nothing(tmp_path: Path) -> None:
+    from sourcecheck.index import Cache
+    from sourcecheck.verdicts import CachedScorer
+
+    weights = tmp_path / "model.onnx"
+    weights.write_bytes(b"weights")
+    pairs = [("Dry plots grew faster.", "Dry plots grew faster than watered ones."), ("a", "b")]
+    first = _CountingVerifier(weights)
+    cold = CachedScorer(first, Cache(tmp_path / "cache"), RunStats()).score(pairs)  # type: ignore[arg-type]
+    second = _CountingVerifier(weights)
+    stats = RunStats()
+    warm = CachedScorer(second, Cache(tmp_path / "cache"), stats).score(pairs)  # type: ignore[arg-type]
+    assert first.asked == 2 and second.asked == 0 and stats.pairs_verified == 0
+    assert (cold == warm).all()  # the very same numbers, cold or warm
+    weights.write_bytes(b"retrained")  # another model: nothing reused
+    third = _CountingVerifier(weights)
+    CachedScorer(third, Cache(tmp_path / "cache"), RunStats()).score(pairs)  # type: ignore[arg-type]
+    assert third.asked == 2

@@ -31,6 +31,9 @@ class Calibration:
     dense_weight: float = 0.7
     ranking: Mapping[str, float] = field(default_factory=dict)
     ranking_margin: float = 0.0
+    #: The verifier's P(contradicts) from which a passage is read as saying the opposite
+    #: (above 1: never, as in a calibration fitted without a verifier).
+    contradict_at: float = 1.01
 
     def score(self, features: Features) -> float:
         """Probability in [0, 1] that the passage backs the claim."""
@@ -54,4 +57,5 @@ def load_calibration(text: str | None = None) -> Calibration:
         dense_weight=float(data.get("dense_weight", 0.7)),
         ranking={str(k): float(v) for k, v in data.get("ranking", {}).get("weights", {}).items()},
         ranking_margin=float(data.get("ranking", {}).get("margin", 0.0)),
+        contradict_at=float(data["thresholds"].get("contradict_at", 1.01)),
     )

@@ -20,6 +20,7 @@ import numpy as np
 from sourcecheck.judge.calibration import Calibration
 from sourcecheck.judge.locators import cited_pages, pdf_pages, prefers_located
 from sourcecheck.judge.quotes import check_quotes, quotations
+from sourcecheck.judge.reading import PairScorer
 from sourcecheck.judge.verdict import (
     better_source_reason,
     judge,
@@ -61,6 +62,7 @@ class CitationJudge:
     sources: dict[str, Source]
     calibration: Calibration
     search: Search
+    scorer: PairScorer | None = None  # the entailment verifier; None leaves its features at 0
 
     def evidence_for(
         self, text: str, vector: np.ndarray, source: str | None, pages: set[int] | None = None
@@ -105,7 +107,9 @@ class CitationJudge:
             else:
                 mismatch = (hits[0], bool(wanted))
         quotes = check_quotes(claim_text, page_texts(source)) if source is not None and quotations(claim_text) else []
-        check = judge(claim_text, citation, reference, match.source, hits, self.calibration, quotes=quotes)
+        check = judge(
+            claim_text, citation, reference, match.source, hits, self.calibration, quotes=quotes, scorer=self.scorer
+        )
         check = with_printed_pages(check, printed)
         if mismatch is not None and citation.locator:
             reason = page_mismatch_reason(check, citation.locator, mismatch[0], printed, page_exists=mismatch[1])
@@ -127,4 +131,6 @@ class CitationJudge:
         cited_here = {self.matches[c.key].source for c in claim.citations if c.key in self.matches}
         hits = self.search(claim_text, vector, None, k=BETTER_SOURCE_SEARCHED)
         alternatives: Sequence[Hit] = [h for h in hits if h.passage.source not in cited_here]
-        return better_source_reason(check, alternatives[0], claim_text, self.calibration) if alternatives else None
+        if not alternatives:
+            return None
+        return better_source_reason(check, alternatives[0], claim_text, self.calibration, self.scorer)

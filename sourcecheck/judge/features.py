@@ -13,6 +13,7 @@ from sourcecheck.judge.cue_lists import CueFinding
 from sourcecheck.judge.cues import compare
 from sourcecheck.judge.effects import compare_effects
 from sourcecheck.judge.number_checks import NumberFinding, unsupported_numbers
+from sourcecheck.judge.reading import PairScorer, Reading, read
 from sourcecheck.model import Hit
 
 FEATURE_NAMES = (
@@ -23,6 +24,8 @@ FEATURE_NAMES = (
     "conflict_cue",
     "weak_cue",
     "effect_disagrees",
+    "entail",
+    "contradict",
 )
 
 #: Cue codes that make a passage say the opposite of the claim, and those that make it say less.
@@ -39,6 +42,7 @@ class Features:
     numbers: tuple[NumberFinding, ...]
     cues: tuple[CueFinding, ...] = ()
     effects: tuple[CueFinding, ...] = ()  # a ratio estimate or two groups' values against the claim
+    reading: Reading | None = None  # the verifier's reading of the best passage, when one ran
 
     @property
     def number_absent(self) -> bool:
@@ -57,9 +61,17 @@ class Features:
     def weak_cues(self) -> list[CueFinding]:
         return [c for c in self.cues if c.code in WEAK_CUES]
 
+    @property
+    def entail(self) -> float:
+        return self.reading.entail if self.reading is not None else 0.0
+
+    @property
+    def contradict(self) -> float:
+        return self.reading.contradict if self.reading is not None else 0.0
+
     def topical(self) -> Features:
-        """The same evidence with the number and wording checks left out: is it about the claim?"""
-        return replace(self, numbers=(), cues=(), effects=())
+        """The same evidence with the number, wording and verifier checks left out: is it about the claim?"""
+        return replace(self, numbers=(), cues=(), effects=(), reading=None)
 
     def vector(self) -> list[float]:
         """The features in FEATURE_NAMES order, as the fitted model expects them."""
@@ -71,11 +83,16 @@ class Features:
             float(any(c.code in CONFLICT_CUES for c in self.cues)),
             float(bool(self.weak_cues)),
             float(bool(self.effects)),
+            self.entail,
+            self.contradict,
         ]
 
 
-def features_of(claim: str, hits: list[Hit]) -> Features:
-    """Features of ``claim`` against ``hits`` (best first, non-empty, one source)."""
+def features_of(claim: str, hits: list[Hit], scorer: PairScorer | None = None) -> Features:
+    """Features of ``claim`` against ``hits`` (best first, non-empty, one source).
+
+    ``scorer`` is the entailment verifier; without one its two features read 0.
+    """
     best = hits[0]
     findings = unsupported_numbers(claim, best.passage.text, [h.passage.text for h in hits[1:]])
     cues = compare(claim, best.passage.text)
@@ -89,4 +106,5 @@ def features_of(claim: str, hits: list[Hit]) -> Features:
         numbers=tuple(findings),
         cues=tuple(cues),
         effects=tuple(effects),
+        reading=read(claim, best.passage.text, scorer) if scorer is not None else None,
     )

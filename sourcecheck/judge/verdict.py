@@ -22,6 +22,7 @@ from sourcecheck.judge.features import Features, features_of
 from sourcecheck.judge.locators import page_label
 from sourcecheck.judge.number_checks import in_claim_unit
 from sourcecheck.judge.quotes import QuoteFinding, drift_message
+from sourcecheck.judge.reading import PairScorer
 from sourcecheck.model import Band, Check, Citation, Evidence, Hit, Reason, Reference
 from sourcecheck.text import trim
 
@@ -57,6 +58,7 @@ def judge(
     hits: list[Hit],
     calibration: Calibration,
     quotes: Sequence[QuoteFinding] = (),
+    scorer: PairScorer | None = None,
 ) -> Check:
     """Band, score, reasons and evidence for ``claim`` against the hits of its cited source.
 
@@ -71,7 +73,7 @@ def judge(
             source,
             Reason("source-unreadable", f"{source} has no readable text to check against"),
         )
-    features = features_of(claim, hits)
+    features = features_of(claim, hits, scorer)
     score = calibration.score(features)
     topical = topical_score(calibration, features)
     best = hits[0]
@@ -95,6 +97,15 @@ def judge(
         for f in features.numbers
         if f.counterpart is not None
     ] + [Reason(c.code, f"{c.message} ({_page(best)})") for c in features.conflict_cues]
+    reading = features.reading
+    if reading is not None and reading.contradict >= calibration.contradict_at and reading.contradict > reading.entail:
+        conflicts.append(
+            Reason(
+                "contradicted",
+                f'the source reads against the claim: "{trim(reading.contradicting, 45)}" '
+                f"({_page(best)}; verifier {reading.contradict:.2f})",
+            )
+        )
     gaps = [
         Reason(
             "number-absent",
@@ -136,11 +147,13 @@ def wants_better_source(check: Check) -> bool:
     return check.band in (Band.ADRIFT, Band.LOOSE)
 
 
-def better_source_reason(check: Check, alternative: Hit, claim: str, calibration: Calibration) -> Reason | None:
+def better_source_reason(
+    check: Check, alternative: Hit, claim: str, calibration: Calibration, scorer: PairScorer | None = None
+) -> Reason | None:
     """A ``better-source`` reason when another file backs the claim and the cited one does not."""
     if not wants_better_source(check):
         return None
-    other = calibration.score(features_of(claim, [alternative]))
+    other = calibration.score(features_of(claim, [alternative], scorer))
     if other < calibration.anchored_at or other <= check.score:
         return None
     return Reason(

@@ -23,7 +23,7 @@ SHARED = {"text", "pdftext"}
 STAGES = {"drafts", "claims", "sources", "index", "judge", "reports"}
 #: What people do with reports (gates, review state, settings, batches): beside the stages, reading only the vocabulary.
 WORKFLOW = {"workflow"}
-TOP = {"pipeline", "api", "cli", "__init__", "__main__", "workspace", "review_commands"}
+TOP = {"pipeline", "verdicts", "api", "cli", "__init__", "__main__", "workspace", "review_commands"}
 
 #: What each package may import besides itself. Drafts hand their prose to the claims stage.
 ALLOWED: dict[str, set[str]] = {

@@ -278,7 +278,11 @@ def test_a_passage_without_a_ratio_says_nothing() -> None:
 
 # A transparent calibration, as in test_verdict.py: the score rises with similarity and coverage.
 CAL = Calibration(
-    weights=(10.0, 4.0, -1.5, -3.0, -3.0, -1.5, -3.0), bias=-8.0, anchored_at=0.6, adrift_below=0.2, provenance="test"
+    weights=(10.0, 4.0, -1.5, -3.0, -3.0, -1.5, -3.0, 0.0, 0.0),
+    bias=-8.0,
+    anchored_at=0.6,
+    adrift_below=0.2,
+    provenance="test",
 )
 CITE = Citation(marker="[1]", label="[1]", key="1")
 
@@ -289,9 +293,9 @@ def test_a_ratio_against_the_claim_makes_the_check_a_conflict() -> None:
     hit = Hit(passage=Passage("a.pdf", 4, passage, 0), fused=0.9, dense=0.9, bm25=1.0, coverage=0.9)
 
     features = features_of(claim, [hit])
-    assert len(FEATURE_NAMES) == 7 and FEATURE_NAMES[-1] == "effect_disagrees"
+    assert FEATURE_NAMES.index("effect_disagrees") == 6
     assert [f.code for f in features.effects] == ["direction-flip"]
-    assert features.vector()[-1] == 1.0
+    assert features.vector()[FEATURE_NAMES.index("effect_disagrees")] == 1.0
 
     check = judge(claim, CITE, None, "a.pdf", [hit], CAL)
     assert check.band is Band.CONFLICT

@@ -7,7 +7,11 @@ from sourcecheck.model import Band, Citation, Hit, Passage
 
 # A transparent calibration for the rules: score rises with similarity and coverage.
 CAL = Calibration(
-    weights=(10.0, 4.0, -1.5, -3.0, -3.0, -1.5, -3.0), bias=-8.0, anchored_at=0.6, adrift_below=0.2, provenance="test"
+    weights=(10.0, 4.0, -1.5, -3.0, -3.0, -1.5, -3.0, 0.0, 0.0),
+    bias=-8.0,
+    anchored_at=0.6,
+    adrift_below=0.2,
+    provenance="test",
 )
 CITE = Citation(marker="[1]", label="[1]", key="1")
 
