@@ -11,6 +11,7 @@ import os
 from collections.abc import Callable, Sequence
 from pathlib import Path
 
+from sourcecheck.errors import BibliographyUnreadable
 from sourcecheck.limits import Limits
 from sourcecheck.model import Problem, ReadOptions, Report, RunStats
 
@@ -104,6 +105,11 @@ def check_many(
     from sourcecheck.pipeline import run_many
 
     paths = [Path(d) for d in drafts]
+    if bib is not None and not Path(bib).is_file():
+        # A bibliography the user typed is part of the command, like --map: a wrong path stops the
+        # run (exit 2) rather than leaving every key unresolved. One named by the draft stays a problem.
+        why = "not found" if not Path(bib).exists() else "not a file"
+        raise BibliographyUnreadable(f"{bib}: bibliography file {why} (--bib)")
     reports = run_many(
         paths,
         Path(sources),

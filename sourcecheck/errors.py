@@ -30,6 +30,10 @@ class MappingError(SourcecheckError):
     """The reference-to-file mapping cannot be read."""
 
 
+class BibliographyUnreadable(SourcecheckError):
+    """The bibliography the user named (``--bib``) cannot be opened: like a missing ``--map``, it stops the run."""
+
+
 class ModelUnavailable(SourcecheckError):
     """The embedding model cannot be loaded from local disk."""
 

@@ -97,6 +97,7 @@ def test_text_report_shows_summary_and_caution(cache: Path, capsys: pytest.Captu
         (["check", str(DRAFT), "--sources", "no-such-folder"], "no-such-folder: sources folder not found"),
         (["check", str(DRAFT), "--sources", str(SOURCES), "--model", "no-model-here"], "model folder not found"),
         (["check", str(DRAFT), "--sources", str(SOURCES), "--map", "nomap.csv"], "nomap.csv"),
+        (["check", str(DRAFT), "--sources", str(SOURCES), "--bib", "norefs.bib"], "norefs.bib: bibliography file"),
     ],
 )
 def test_input_errors_exit_2_with_one_line(
