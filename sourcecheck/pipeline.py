@@ -264,22 +264,18 @@ def prepare(
     ``read_options.limits`` bounds the draft and the sources alike; ``follow_links`` reads
     PDFs that are links to files outside ``sources_dir``.
     """
-    stats = stats if stats is not None else RunStats()
-    read_options = read_options or ReadOptions()
-    resolve_model_path(model)  # a missing model stops the run before any file is read
-    draft = read_draft(draft_path, display=str(draft_path), options=read_options)
-    shared = prepare_sources(
+    return prepare_many(
+        [draft_path],
         sources_dir,
         mapping=mapping,
         model=model,
         cache_dir=cache_dir,
         progress=progress,
         stats=stats,
-        limits=read_options.limits,
+        read_options=read_options,
         follow_links=follow_links,
         verifier=verifier,
-    )
-    return prepare_draft(draft, shared, stats)
+    )[0]
 
 
 class RunOptions(TypedDict, total=False):
@@ -300,14 +296,15 @@ def run(draft_path: Path, sources_dir: Path, **options: Unpack[RunOptions]) -> R
     return judge_all(prepare(draft_path, sources_dir, **options), draft_path, sources_dir)
 
 
-def run_many(draft_paths: list[Path], sources_dir: Path, **options: Unpack[RunOptions]) -> list[Report]:
-    """Check several drafts against one sources folder: the PDFs are read, embedded and indexed once.
+def prepare_many(draft_paths: list[Path], sources_dir: Path, **options: Unpack[RunOptions]) -> list[Prepared]:
+    """Prepare several drafts against one sources folder, read, embedded and indexed once.
 
-    Every draft is read first, so a missing one stops the run before any PDF is read.
+    Every draft is read first, so a missing one (or a missing model) stops the run before
+    any PDF is read. ``read_options.limits`` bounds the drafts and the sources alike.
     """
     stats = options.get("stats")
     stats = stats if stats is not None else RunStats()
-    read_options = options.get("read_options")
+    read_options = options.get("read_options") or ReadOptions()
     resolve_model_path(options.get("model"))
     drafts = [read_draft(path, display=str(path), options=read_options) for path in draft_paths]
     shared = prepare_sources(
@@ -317,14 +314,17 @@ def run_many(draft_paths: list[Path], sources_dir: Path, **options: Unpack[RunOp
         cache_dir=options.get("cache_dir"),
         progress=options.get("progress", _noop),
         stats=stats,
-        limits=read_options.limits if read_options is not None else None,
+        limits=read_options.limits,
         follow_links=options.get("follow_links", False),
         verifier=options.get("verifier"),
     )
-    return [
-        judge_all(prepare_draft(draft, shared, stats), path, sources_dir)
-        for draft, path in zip(drafts, draft_paths, strict=True)
-    ]
+    return [prepare_draft(draft, shared, stats) for draft in drafts]
+
+
+def run_many(draft_paths: list[Path], sources_dir: Path, **options: Unpack[RunOptions]) -> list[Report]:
+    """Check several drafts against one sources folder: the PDFs are read, embedded and indexed once."""
+    prepared = prepare_many(draft_paths, sources_dir, **options)
+    return [judge_all(one, path, sources_dir) for one, path in zip(prepared, draft_paths, strict=True)]
 
 
 def make_search(index: EvidenceIndex, calibration: Calibration) -> Search:

@@ -8,6 +8,7 @@ from __future__ import annotations
 
 import hashlib
 from collections.abc import Sequence
+from functools import lru_cache
 from pathlib import Path
 
 import numpy as np
@@ -34,7 +35,8 @@ class CachedScorer:
     @property
     def fingerprint(self) -> str:
         if self._fingerprint is None:
-            self._fingerprint = hashlib.sha256(self.verifier.model_path.read_bytes()).hexdigest()
+            stat = self.verifier.model_path.stat()
+            self._fingerprint = _file_digest(str(self.verifier.model_path), stat.st_size, stat.st_mtime_ns)
         return self._fingerprint
 
     def score(self, pairs: Sequence[tuple[str, str]]) -> np.ndarray:
@@ -46,6 +48,12 @@ class CachedScorer:
         self.cache.save_vectors("verdicts", key, fresh)
         self.stats.pairs_verified += len(pairs)
         return fresh.astype(np.float64)
+
+
+@lru_cache(maxsize=8)
+def _file_digest(path: str, size: int, mtime_ns: int) -> str:
+    """sha256 of a model file, hashed once per process while its size and time stay (34 MB for the shipped one)."""
+    return hashlib.sha256(Path(path).read_bytes()).hexdigest()
 
 
 def make_verifier(path: str | None) -> Verifier:

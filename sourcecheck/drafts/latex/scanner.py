@@ -14,7 +14,7 @@ from sourcecheck.drafts.latex.writer import SPACE, Writer
 from sourcecheck.model import Problem
 
 PARAGRAPH_BREAK = re.compile(r"\n[ \t]*\n")
-_WORD_RE = re.compile(r"[A-Za-z]+")
+WORD_RE = re.compile(r"[A-Za-z]+")
 _COMMAND_BEFORE_RE = re.compile(r"\\([A-Za-z]+)\*?\s*(?:\[[^\[\]{}]*\]\s*){0,2}\Z")
 
 
@@ -158,7 +158,7 @@ class Scanner:
             inner, after = self.close.get(i, (end, end))
             return i + 1, min(inner, end), min(max(after, i + 1), end)
         if char == "\\":
-            word = _WORD_RE.match(self.t, i + 1, end)
+            word = WORD_RE.match(self.t, i + 1, end)
             stop = word.end() if word else min(i + 2, end)
             return i, stop, stop
         if char in "}[]" or char.isspace():

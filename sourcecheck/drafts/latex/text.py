@@ -13,12 +13,11 @@ from __future__ import annotations
 import re
 
 from sourcecheck.drafts.latex import commands as cmd
-from sourcecheck.drafts.latex.scanner import PARAGRAPH_BREAK, Scanner, escaped
+from sourcecheck.drafts.latex.scanner import PARAGRAPH_BREAK, WORD_RE, Scanner, escaped
 from sourcecheck.drafts.latex.source import Source
 from sourcecheck.drafts.latex.writer import TextBlock, Writer
 from sourcecheck.model import Problem
 
-_WORD_RE = re.compile(r"[A-Za-z]+")
 _PLAIN_RUN_RE = re.compile(r"[^\\{}$~\n \t`'\-&%]+")
 # Groups nested deeper than this are read flat, so a pathological file cannot exhaust the stack.
 MAX_NESTING = 100
@@ -99,7 +98,7 @@ class _Converter(Scanner):
         symbol = t[i + 1]
         if not ("a" <= symbol <= "z" or "A" <= symbol <= "Z"):
             return self.control_symbol(symbol, i, end, w)
-        word = _WORD_RE.match(t, i + 1, end)
+        word = WORD_RE.match(t, i + 1, end)
         assert word is not None
         name, j = word.group(0), word.end()
         k = self.skip_space(j, end)
