@@ -4,7 +4,9 @@ The drafts cite the 27 real papers of ``../shared/data/papers`` in eight hand-wr
 styles (tests/fixtures/real_references) and are built as Markdown, Word and PDF
 manuscripts (tests/real_references.py). Each is read by the draft reader and matched
 against the PDFs. "right" counts the papers whose PDF went to an entry that holds the
-paper's title; "wrong" counts entries given a PDF whose title they do not hold.
+paper's title; "wrong" counts entries given a PDF whose title they do not hold; "titles"
+counts the entries whose parsed title is a paper's title (``fuzz.ratio`` >= 90 on letters and
+digits), the entry parser's own share of the work.
 
 "before" runs the whole package of an earlier commit (``--before REV``; by default the
 commit this branch forked from main) in a child process: its reader, entry parser and
@@ -50,14 +52,22 @@ def _cites(entry: str, title: str) -> bool:
     """
     from rapidfuzz import fuzz
 
-    def letters(text: str) -> str:
-        return "".join(ch for ch in text.lower() if ch.isalnum())
-
-    return fuzz.partial_ratio(letters(title), letters(entry)) >= 95
+    return fuzz.partial_ratio(_letters(title), _letters(entry)) >= 95
 
 
-def measure(papers_dir: Path) -> dict[str, dict[str, tuple[int, int, int]]]:
-    """style -> format -> (papers reached by a right entry, entries given a wrong PDF, papers)."""
+def _letters(text: str) -> str:
+    return "".join(ch for ch in text.lower() if ch.isalnum())
+
+
+def _title_read(parsed: str | None, titles: list[str]) -> bool:
+    """Whether a parsed title is one of the papers' titles (letters and digits, ratio >= 90)."""
+    from rapidfuzz import fuzz
+
+    return parsed is not None and any(fuzz.ratio(_letters(parsed), _letters(t)) >= 90 for t in titles)
+
+
+def measure(papers_dir: Path) -> dict[str, dict[str, tuple[int, int, int, int]]]:
+    """style -> format -> (papers reached by a right entry, entries given a wrong PDF, papers, titles read)."""
     from sourcecheck.drafts import read_draft
     from sourcecheck.model import Source
     from sourcecheck.sources import match_references, read_source
@@ -67,7 +77,7 @@ def measure(papers_dir: Path) -> dict[str, dict[str, tuple[int, int, int]]]:
     titles = dict(zip(wanted, entries(next(s for s in STYLES if s.name == "title_only")), strict=True))
     sources = [read_source(papers_dir / f, f) for f in wanted]
     readable = [s for s in sources if isinstance(s, Source)]
-    out: dict[str, dict[str, tuple[int, int, int]]] = {}
+    out: dict[str, dict[str, tuple[int, int, int, int]]] = {}
     with tempfile.TemporaryDirectory() as tmp:
         for style in STYLES:
             drafts = {
@@ -89,14 +99,18 @@ def measure(papers_dir: Path) -> dict[str, dict[str, tuple[int, int, int]]]:
                             right.add(file)
                         else:
                             wrong += 1
-                out[style.name][fmt] = (len(right), wrong, len(wanted))
+                read = sum(_title_read(ref.title, list(titles.values())) for ref in references)
+                out[style.name][fmt] = (len(right), wrong, len(wanted), read)
     return out
 
 
 def _table(before: dict, after: dict) -> str:
     held_out = {s.name for s in STYLES if s.held_out}
-    lines = ["| style | format | before: right / wrong | after: right / wrong |", "| --- | --- | --- | --- |"]
-    totals = {(part, when): [0, 0, 0] for part in ("development", "held out") for when in ("before", "after")}
+    lines = [
+        "| style | format | before: right / wrong / titles | after: right / wrong / titles |",
+        "| --- | --- | --- | --- |",
+    ]
+    totals = {(part, when): [0, 0, 0, 0] for part in ("development", "held out") for when in ("before", "after")}
     for style, formats in after.items():
         part = "held out" if style in held_out else "development"
         for fmt, now in formats.items():
@@ -104,12 +118,13 @@ def _table(before: dict, after: dict) -> str:
             for when, value in (("before", then), ("after", now)):
                 totals[part, when] = [a + b for a, b in zip(totals[part, when], value, strict=True)]
             name = f"{style} (held out)" if part == "held out" else style
-            lines.append(f"| {name} | {fmt} | {then[0]}/{then[2]} / {then[1]} | {now[0]}/{now[2]} / {now[1]} |")
+            cells = [f"{v[0]}/{v[2]} / {v[1]} / {v[3]}" for v in (then, now)]
+            lines.append(f"| {name} | {fmt} | {cells[0]} | {cells[1]} |")
     for part in ("development", "held out"):
         cells = []
         for when in ("before", "after"):
-            right, wrong, all_ = totals[part, when]
-            cells.append(f"{right}/{all_} ({right / max(all_, 1):.1%}) / {wrong}")
+            right, wrong, all_, read = totals[part, when]
+            cells.append(f"{right}/{all_} ({right / max(all_, 1):.1%}) / {wrong} / {read} ({read / max(all_, 1):.1%})")
         lines.append(f"| all {part} styles | all | {cells[0]} | {cells[1]} |")
     return "\n".join(lines)
 

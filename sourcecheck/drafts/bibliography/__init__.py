@@ -15,6 +15,7 @@ from pathlib import Path
 from sourcecheck.drafts.bibliography.bbl import parse_bbl
 from sourcecheck.drafts.bibliography.bibtex import parse_bibtex
 from sourcecheck.drafts.bibliography.csl_json import parse_csl_json
+from sourcecheck.drafts.bibliography.entry_rules import parse_entry_by_rules
 from sourcecheck.drafts.bibliography.reflist import parse_references
 from sourcecheck.drafts.bibliography.ris import parse_ris
 from sourcecheck.drafts.textfile import decode
@@ -29,6 +30,7 @@ __all__ = [
     "parse_bbl",
     "parse_bibtex",
     "parse_csl_json",
+    "parse_entry_by_rules",  # the rule parser, kept for a year the model misses; bench/entry_parser.py compares
     "parse_references",
     "parse_ris",
 ]

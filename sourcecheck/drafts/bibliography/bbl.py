@@ -11,9 +11,10 @@ from __future__ import annotations
 
 import re
 
+from sourcecheck.drafts.bibliography.entry_rules import parse_authors
 from sourcecheck.drafts.bibliography.latex_markup import latex_to_text
 from sourcecheck.drafts.bibliography.record import Person, make_reference, normalise_doi, year_of
-from sourcecheck.drafts.bibliography.reflist import parse_authors, parse_entry
+from sourcecheck.drafts.bibliography.reflist import parse_entry
 from sourcecheck.model import Problem, Reference
 from sourcecheck.text import PARTICLES, family_key
 
