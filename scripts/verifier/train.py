@@ -4,11 +4,13 @@ Usage::
 
     python scripts/verifier/train.py --measure 800            # pairs per second, then stop
     python scripts/verifier/train.py --epochs 1 --sample snli=800 cad=3000 citint=800 --max-minutes 72
-    python scripts/verifier/train.py --epochs 4 --sample --lr 5e-5 --max-minutes 66   # the shipped model
+    python scripts/verifier/train.py --epochs 4 --sample --lr 5e-5 --max-minutes 66   # the first stage
+    python scripts/verifier/train.py --init OUT/epoch-4 --data OUT/contrast ...        # the second stage
 
-Reads ``pairs.jsonl`` written by build_data.py. Every epoch trains on a fresh seeded sample
-of each data set: ``--sample NAME=N`` caps a data set (snli, cad, scifact, counterfactual,
-citint) at N pairs per epoch, the others are taken whole. A two-core laptop cannot afford
+Reads ``pairs.jsonl`` written by build_data.py (or by build_contrast.py, for the second
+stage). Every epoch trains on a fresh seeded sample of each data set: ``--sample NAME=N``
+caps a data set (snli, cad, scifact, counterfactual, citint, contrast) at N pairs per epoch,
+the others are taken whole. A two-core laptop cannot afford
 every NLI pair, and the scientific pairs are the domain the tool meets, so they are kept whole.
 Batches hold pairs of similar length (dynamic padding), tokenised by the same code the
 runtime uses (sourcecheck.judge.verifier.encoding). After each epoch the model is scored on
@@ -43,7 +45,7 @@ from pair_records import LABELS, ROOT, TRAIN, VAL, Pair, read_pairs
 from sourcecheck.judge import encode_pairs, load_tokenizer
 
 DEFAULT_DATA = ROOT / "bench" / "out" / "verifier"
-FAMILIES = ("snli", "cad", "scifact", "counterfactual", "citint")
+FAMILIES = ("snli", "cad", "scifact", "counterfactual", "citint", "contrast")
 
 
 def base_model_dir() -> Path:
@@ -199,8 +201,12 @@ def train(args: argparse.Namespace) -> dict:
     )
     base = base_model_dir()
     tokenizer = load_tokenizer(base / "tokenizer.json", args.max_length)
+    # A second stage (--init) goes on from the first stage's checkpoint; the tokenizer is the base's either way.
     model = AutoModelForSequenceClassification.from_pretrained(
-        base, num_labels=len(LABELS), id2label=dict(enumerate(LABELS)), label2id={n: i for i, n in enumerate(LABELS)}
+        args.init or base,
+        num_labels=len(LABELS),
+        id2label=dict(enumerate(LABELS)),
+        label2id={n: i for i, n in enumerate(LABELS)},
     )
     model.train()
     per_epoch = len(capped_sample(training, args.caps, random.Random(0)))
@@ -261,6 +267,7 @@ def parse_args(argv: list[str] | None) -> argparse.Namespace:
     parser = argparse.ArgumentParser(description=__doc__.split("\n\n")[0])
     parser.add_argument("--data", type=Path, default=DEFAULT_DATA, help="folder with pairs.jsonl")
     parser.add_argument("--out", type=Path, default=DEFAULT_DATA / "run", help="checkpoint folder")
+    parser.add_argument("--init", type=Path, default=None, help="start from this checkpoint (a second stage)")
     parser.add_argument("--epochs", type=int, default=1)
     parser.add_argument("--sample", nargs="*", default=["snli=800", "cad=3000", "citint=800"], help="NAME=N caps")
     parser.add_argument("--val-per-set", type=int, default=150, help="validation pairs per data set at most")
