@@ -112,7 +112,19 @@ def adjective_antonym(word: str, source: Path = WORDNET_DIR) -> str | None:
     """
     reader = wordnet(source)
     lower = word.lower()
-    for synset in reader.synsets(lower, pos="a") + reader.synsets(lower, pos="s"):
+    return _lemma_antonym(reader.synsets(lower, pos="a") + reader.synsets(lower, pos="s"), lower)
+
+
+@lru_cache(maxsize=8192)
+def verb_antonym(base: str, source: Path = WORDNET_DIR) -> str | None:
+    """The direct antonym of a verb's base form ("include" -> "exclude"), by the same rules."""
+    lower = base.lower()
+    return _lemma_antonym(wordnet(source).synsets(lower, pos="v"), lower)
+
+
+def _lemma_antonym(synsets: list, lower: str) -> str | None:
+    """The first one-word antonym of the lemma ``lower`` itself in ``synsets`` (most frequent sense first)."""
+    for synset in synsets:
         for lemma in synset.lemmas():
             if lemma.name().lower() != lower:
                 continue

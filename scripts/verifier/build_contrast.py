@@ -63,31 +63,29 @@ def contrast_pairs(pairs: list[Pair], per_kind: int, seed: int = SEED) -> tuple[
     """Edited claims of supported pairs (-> contradicts), at most ``per_kind`` of each kind."""
     by_kind: dict[str, list[Pair]] = defaultdict(list)
     seen = {(p.claim, p.evidence) for p in pairs}
+
+    def add(kind: str, edited: str | None, original: str, pair: Pair, source: str) -> None:
+        if edited is None or edited == original or (edited, pair.evidence) in seen:
+            return
+        seen.add((edited, pair.evidence))
+        by_kind[kind].append(
+            Pair(edited, pair.evidence, CONTRADICTS, f"contrast:{kind}/{source}", pair.group, pair.split)
+        )
+
     for pair in pairs:
         if pair.label != SUPPORTS or family(pair) == "counterfactual":
             continue
         for kind, edit in EDITS.items():
             if kind == "negation-removed" and family(pair) in ("snli", "cad"):
                 continue  # an NLI hypothesis's negation is often its own point ("nobody is sad")
-            edited = edit(pair.claim)
-            if edited is None or edited == pair.claim or (edited, pair.evidence) in seen:
-                continue
-            seen.add((edited, pair.evidence))
-            source = f"contrast:{kind}/{family(pair)}"
-            by_kind[kind].append(Pair(edited, pair.evidence, CONTRADICTS, source, pair.group, pair.split))
+            add(kind, edit(pair.claim), pair.claim, pair, family(pair))
     # Reversals that claims rarely hold (comparatives, "than" roles) are also made from the
     # evidence sentences of the scientific pairs, read against themselves: the edited sentence
     # as the claim, the sentence as it stands as the evidence.
     for pair in pairs:
-        if family(pair) not in SELF_FAMILIES:
-            continue
-        for kind, edit in SELF_EDITS.items():
-            edited = edit(pair.evidence)
-            if edited is None or edited == pair.evidence or (edited, pair.evidence) in seen:
-                continue
-            seen.add((edited, pair.evidence))
-            source = f"contrast:{kind}/self-{family(pair)}"
-            by_kind[kind].append(Pair(edited, pair.evidence, CONTRADICTS, source, pair.group, pair.split))
+        if family(pair) in SELF_FAMILIES:
+            for kind, edit in SELF_EDITS.items():
+                add(kind, edit(pair.evidence), pair.evidence, pair, f"self-{family(pair)}")
     rng = random.Random(seed)
     made: list[Pair] = []
     counts: Counter[str] = Counter()

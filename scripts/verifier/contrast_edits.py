@@ -18,9 +18,8 @@ regular English rules (common practice, no source) and skips what they cannot fo
 from __future__ import annotations
 
 import re
-from functools import lru_cache
 
-from antonyms import WORDNET_DIR, adjective_antonym, wordnet
+from antonyms import WORDNET_DIR, adjective_antonym, verb_antonym, wordnet
 from edits import ANTONYM_SKIP, DIRECTION, match_case, past_tense, third_person
 
 _WORD = re.compile(r"[A-Za-z][A-Za-z\-]*")
@@ -68,21 +67,6 @@ def swap_comparative(text: str) -> str | None:
             new = _comparative(antonym) if antonym else None
             if new is not None and new != lower:
                 return f"{text[: match.start()]}{match_case(match.group(), new)}{text[match.end() :]}"
-    return None
-
-
-@lru_cache(maxsize=8192)
-def verb_antonym(base: str) -> str | None:
-    """The one-word WordNet antonym of a verb's own lemma, in its most frequent sense that has one."""
-    reader = wordnet(WORDNET_DIR)
-    for synset in reader.synsets(base, pos="v"):
-        for lemma in synset.lemmas():
-            if lemma.name().lower() != base:
-                continue
-            for antonym in lemma.antonyms():
-                name = antonym.name()
-                if "_" not in name and name.isalpha():
-                    return name
     return None
 
 
