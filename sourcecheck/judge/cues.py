@@ -22,7 +22,9 @@ stream (lists in ``cue_lists.toml``), pure Python and fast, so they can run on e
   ("is not" + "not restricted to": a widening, not a denial). Double negation is handled
   only in its plainest form: "not"/"no"/"never" directly before "without", "fail to",
   "lack of" cancels both ("did not fail to"). Affixal negation ("unchanged", "not
-  unlike") is not read at all.
+  unlike") is not read at all. A claim that negates ("did not change X") agrees with a
+  passage sentence that states no effect ("no statistically significant difference in X"),
+  however far its "no" stands from X.
 - **direction-flip**: for each content word the claim and passage share, the nearest
   direction word in the same clause (within 6 words; ties go to the word before, as in
   "increased density") is looked up on each side. The claim flips the passage when more
@@ -39,7 +41,9 @@ stream (lists in ``cue_lists.toml``), pure Python and fast, so they can run on e
   "worldwide") is reported when it has one. Species and cell-study terms count anywhere in
   the passage unless it also speaks of humans or in-vivo work; subgroup, setting and place
   terms count only in the sentences that share the claim's words, and a subgroup found
-  with its opposite ("women" with "men") restricts nothing.
+  with its opposite ("women" with "men") restricts nothing. A capitalised term after "in"
+  is no place when it names an arm or a condition ("in the PCSO group", "in the SRL case")
+  or is an acronym of words the claim writes out ("SRL": "semantic role labelling").
 
 Each check returns at most one finding, so a report line stays readable.
 """
@@ -49,7 +53,7 @@ from __future__ import annotations
 import re
 
 from sourcecheck.judge.cue_lists import CueFinding, load_cues
-from sourcecheck.judge.cue_text import CueMatch, CueText, Label, tokens_of
+from sourcecheck.judge.cue_text import CueMatch, CueText, Label, Token, tokens_of
 from sourcecheck.text import STOP_WORDS, sentence_spans
 
 _DIRECTION_WINDOW = 6  # words between a direction cue and the word it is about
@@ -101,6 +105,8 @@ def _negation(claim: CueText, passage: CueText) -> CueFinding | None:
             if len(shared) >= need and not any(r & shared for _, r in claim_scopes):
                 said = passage.said(cue)
                 return CueFinding("negation", "", said, f'source negates it: "{said}"; the claim does not')
+    if _NO_EFFECT.search(passage.raw):
+        return None  # "did not change X" and "no significant difference in X" agree
     for cue, roots in claim_scopes:
         own = roots & claim.roots
         shared = own & passage.roots
@@ -263,10 +269,29 @@ def _place_scope(claim: CueText, passage: CueText, sentences: set[int]) -> CueFi
             continue
         if k < len(toks) and toks[k].text == "et":  # "in Smith et al.": a citation
             continue
+        if _names_a_condition(toks, k) or _spelled_out(passage.surface(j, k), claim):
+            continue
         if any(toks[n].root in claim_words for n in range(j, k)):
             continue
         return _scope_finding(claim, "setting", passage.surface(i, k))
     return None
+
+
+def _names_a_condition(toks: list[Token], k: int) -> bool:
+    """ "in the SRL case", "in the PCSO-524 group": the capitals name an arm or a condition of
+    the study (the word after them, past a code number, is one of ``not_place_heads``), not a place."""
+    while k < len(toks) and toks[k].text.isdigit():
+        k += 1
+    return k < len(toks) and toks[k].text in load_cues().not_place_heads
+
+
+def _spelled_out(term: str, claim: CueText) -> bool:
+    """Whether ``term`` is an acronym of words the claim writes out ("SRL": "semantic role labelling")."""
+    letters = "".join(c for c in term.lower() if c.isalpha())
+    if len(letters) < 2 or " " in term.strip():
+        return False
+    initials = "".join(t.text[0] for t in claim.toks if t.text[:1].isalpha())
+    return letters in initials
 
 
 def sentences(text: str) -> list[str]:
@@ -312,8 +337,9 @@ _NOUN_BEFORE = frozenset(["of", "in", "from"])
 # Words that state there is no effect (common practice, no source).
 _NO_EFFECT = re.compile(
     r"\b(?:similar|same|unrelated|independent of|unchanged|incapable of|ineffective|inactive against"
-    r"|no (?:(?:known|significant|clear|detectable|apparent) )?(?:difference|effect|association|change|impact|"
-    r"relationship|link|increase|decrease|reduction)|not (?:associated|related|linked|affect\w*|change\w*|differ\w*)"
+    r"|no (?:(?:statistically|known|significant|clear|detectable|apparent) ){0,2}"
+    r"(?:difference|effect|association|change|impact|relationship|link|increase|decrease|reduction)"
+    r"|not (?:associated|related|linked|affect\w*|change\w*|differ\w*)"
     r"|does not|did not|do not|has no|have no|had no)\b",
     re.IGNORECASE,
 )

@@ -212,6 +212,16 @@ def test_no_negation_flag_when_both_negate() -> None:
     )
 
 
+def test_a_claim_of_no_change_agrees_with_a_passage_reporting_no_difference() -> None:
+    # "did not change X" and "no statistically significant difference in X" state the same
+    # null result, though the passage's "no" stands too far from X for the window to reach it.
+    passage = "There was no statistically significant difference identified in the average daily nest density."
+    assert "negation" not in _codes("Warming did not change the average daily nest density.", passage)
+    # A claim that negates a passage reporting an effect is still flagged.
+    found = _codes("Warming did not change average daily nest density.", "Warming raised average daily nest density.")
+    assert found["negation"].claim_cue == "did not"
+
+
 def test_negation_about_something_else_is_ignored() -> None:
     passage = "Nest density rose with warming at all sites. Predators were not observed at the colony."
     assert "negation" not in _codes("Warming raised nest density.", passage)
@@ -304,6 +314,18 @@ def test_single_site_and_place_qualifiers() -> None:
     assert (found.claim_cue, found.source_cue) == ("worldwide", "in Norway")
     assert "scope-wider" not in _codes("In Norway nest density rose by 18%.", "Nest density rose by 18% in Norway.")
     assert "scope-wider" not in _codes("Nest density rose by 18%.", "Nest density rose by 18% (in Table 2).")
+
+
+def test_a_capitalised_arm_of_the_study_or_a_spelled_out_acronym_is_no_place() -> None:
+    # "in the SRL case" names a task the claim spells out; "in the NDX-5 group" an arm of a
+    # trial; "in the UK" still limits the finding to a place.
+    claim = "For semantic role labelling, the new model needs a tenth of the training data."
+    assert "scope-wider" not in _codes(claim, "In the SRL case, the new model needs a tenth of the training data.")
+    claim = "Children given the extract recalled pictures more accurately."
+    passage = "Children in the NDX-524 group recalled pictures more accurately."
+    assert "scope-wider" not in _codes(claim, passage)
+    found = _codes(claim, "Children in the UK recalled pictures more accurately.")["scope-wider"]
+    assert found.source_cue == "in the UK"
 
 
 @pytest.mark.parametrize(
