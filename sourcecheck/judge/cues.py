@@ -29,7 +29,9 @@ stream (lists in ``cue_lists.toml``), pure Python and fast, so they can run on e
   direction word in the same clause (within 6 words; ties go to the word before, as in
   "increased density") is looked up on each side. The claim flips the passage when more
   shared words disagree (opposite sides of one axis: increase/decrease, improve/worsen,
-  positive/negative correlation ...) than agree. Comparing word by word means "decreased
+  positive/negative correlation ...) than agree, or when the words after the claim's
+  direction word (its object: what was increased) only disagree, whatever its subject
+  does ("women increased X" against "women increased Y, while reducing X"). Comparing word by word means "decreased
   predation led to increased density" agrees with a claim of "increased density": only the
   object "density" is shared. "Higher in A than in B" agrees with "lower in B than in A"
   (the words either side of "than" are compared swapped). A direction word right after a
@@ -171,6 +173,7 @@ def _direction(claim: CueText, passage: CueText) -> CueFinding | None:
     for j in passage.content:
         passage_at.setdefault(passage.toks[j].root, []).append(j)
     agree, disagree = 0, 0
+    object_votes = [0, 0]  # agreeing, disagreeing words that follow their cue (its object)
     first: tuple[str, str, str, bool] | None = None
     seen: set[str] = set()
     for i in claim.content:
@@ -187,12 +190,14 @@ def _direction(claim: CueText, passage: CueText) -> CueFinding | None:
         opposite = [c for c, (a, s) in theirs if a == axis and s != side]
         if side in sides or (opposite and _swapped(claim, cue, passage, opposite[0])):
             agree += 1
+            object_votes[0] += cue.end <= i
         elif opposite:
             disagree += 1
+            object_votes[1] += cue.end <= i
             # Report the cue's object ("increased density") over its subject ("warming increased").
             if first is None or (not first[3] and cue.end <= i):
                 first = (claim.said(cue), passage.said(opposite[0]), _phrase_at(claim, i), cue.end <= i)
-    if first is None or disagree <= agree:
+    if first is None or (disagree <= agree and not object_votes[1] > object_votes[0] == 0):
         return None
     claimed, reported, about, _ = first
     return CueFinding(

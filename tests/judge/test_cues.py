@@ -265,6 +265,21 @@ def test_swapped_comparison_is_not_a_flip() -> None:
     assert "direction-flip" in _codes(claim, "Nest density was lower in restored marshes than in ditched marshes.")
 
 
+def test_the_object_of_the_direction_word_outweighs_a_subject_the_passage_shares() -> None:
+    # The passage's subject goes with another verb ("increased their fibre"); what the claim
+    # says was increased is what the passage says was reduced.
+    claim = "Treated women increased the share of their energy intake from saturated fats."
+    passage = (
+        "Treated women increased their fibre consumption, while reducing the share of their energy from saturated fats."
+    )
+    found = _codes(claim, passage)["direction-flip"]
+    assert (found.claim_cue, found.source_cue) == ("increased", "reducing")
+    agreeing = (
+        "Treated women increased their fibre consumption and increased the share of their energy from saturated fats."
+    )
+    assert "direction-flip" not in _codes(claim, agreeing)
+
+
 def test_same_direction_and_non_directions_are_not_flips() -> None:
     assert "direction-flip" not in _codes("Nest density rose in warm years.", "Nest density increased in warm years.")
     assert "direction-flip" not in _codes("Nest density fell by up to 20%.", "Nest density fell by up to 20%.")
