@@ -38,7 +38,15 @@ import numpy as np
 from rapidfuzz import fuzz
 
 from sourcecheck.index import DENSE_WEIGHT, RANK_FEATURES, RERANK_DEPTH, Ranker, rank_features
-from sourcecheck.judge import EVIDENCE_SEARCHED, FEATURE_NAMES, Calibration, Features, features_of, judge
+from sourcecheck.judge import (
+    EVIDENCE_SEARCHED,
+    FEATURE_NAMES,
+    Calibration,
+    Features,
+    features_of,
+    judge,
+    load_calibration,
+)
 from sourcecheck.model import Band, Hit
 from sourcecheck.pipeline import Prepared, prepare
 from sourcecheck.verdicts import CachedScorer
@@ -323,6 +331,11 @@ def main() -> int:
     print(
         f"\nholdout: evidence hit@1 {at1:.3f}, hit@3 {at3:.3f} (n={n}); AUROC SUPPORT vs rest {area:.3f}, "
         f"SUPPORT vs CONTRADICT {auroc(scores[opposed_holdout], support[opposed_holdout]):.3f}"
+    )
+    shipped = np.array([load_calibration().score(features(p)) for p in holdout])
+    print(
+        f"the shipped calibration.json on the same holdout: AUROC SUPPORT vs rest {auroc(shipped, support):.3f}, "
+        f"SUPPORT vs CONTRADICT {auroc(shipped[opposed_holdout], support[opposed_holdout]):.3f}"
     )
     print("reliability (holdout): range | pairs | mean score | share SUPPORT")
     table = reliability(scores, support)
