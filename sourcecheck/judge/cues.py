@@ -34,8 +34,9 @@ stream (lists in ``cue_lists.toml``), pure Python and fast, so they can run on e
   does ("women increased X" against "women increased Y, while reducing X"). Comparing word by word means "decreased
   predation led to increased density" agrees with a claim of "increased density": only the
   object "density" is shared. "Higher in A than in B" agrees with "lower in B than in A"
-  (the words either side of "than" are compared swapped). A direction word right after a
-  negation is left to the negation check ("did not decrease").
+  (the words either side of "than" are compared swapped), and "higher in B than in A" or
+  "B outperformed A" turns it round. A direction word right after a negation is left to the
+  negation check ("did not decrease").
 - **scope-wider**: the passage restricts the finding (species, cell studies, a subgroup of
   people, one site, the laboratory, "in <Place>") and the claim neither keeps that
   restriction (same term, a synonym, or a covering term such as "animal models") nor is
@@ -55,12 +56,13 @@ from __future__ import annotations
 import re
 
 from sourcecheck.judge.cue_lists import CueFinding, load_cues
-from sourcecheck.judge.cue_text import CueMatch, CueText, Label, Token, tokens_of
+from sourcecheck.judge.cue_text import CueMatch, CueText, Label, names_a_condition, spelled_out, tokens_of
 from sourcecheck.text import STOP_WORDS, sentence_spans
 
 _DIRECTION_WINDOW = 6  # words between a direction cue and the word it is about
 _WHOLE_PASSAGE_KINDS = frozenset(["species", "in-vitro"])
 _DETERMINERS = frozenset(["the", "a", "an", "its", "their", "our", "this", "these", "both"])
+_COMPARING_VERBS = ("outperform", "underperform", "exceed", "surpass")  # "A exceeded B" compares A with B
 
 # --- the four checks ------------------------------------------------------------------------
 
@@ -138,13 +140,15 @@ def _axis(cue: CueMatch) -> tuple[str, str]:
 
 
 def _comparison(text: CueText, cue: CueMatch) -> tuple[set[str], set[str]] | None:
-    """For "A is higher than B": the content words of A and of B, else None."""
+    """For "A is higher than B" or "A outperformed B": the content words of A and of B, else None."""
     clause = text.toks[cue.start].clause
     than = next(
         (k for k in range(cue.end, min(len(text.toks), cue.end + 8)) if text.toks[k].text == "than"),
         None,
     )
-    if than is None or text.toks[than].clause != clause:
+    if text.toks[cue.start].text.startswith(_COMPARING_VERBS):
+        than = cue.start
+    elif than is None or text.toks[than].clause != clause:
         return None
     in_clause = [i for i in text.content if text.toks[i].clause == clause and not cue.start <= i < cue.end]
     return {text.toks[i].root for i in in_clause if i < than}, {text.toks[i].root for i in in_clause if i > than}
@@ -174,6 +178,7 @@ def _direction(claim: CueText, passage: CueText) -> CueFinding | None:
         passage_at.setdefault(passage.toks[j].root, []).append(j)
     agree, disagree = 0, 0
     object_votes = [0, 0]  # agreeing, disagreeing words that follow their cue (its object)
+    swaps = 0  # words whose comparison the claim turns round; one decides
     first: tuple[str, str, str, bool] | None = None
     seen: set[str] = set()
     for i in claim.content:
@@ -188,21 +193,25 @@ def _direction(claim: CueText, passage: CueText) -> CueFinding | None:
         theirs = [(c, _axis(c)) for c in (_nearest(passage, j) for j in passage_at[root]) if c is not None]
         sides = {s for c, (a, s) in theirs if a == axis}
         opposite = [c for c, (a, s) in theirs if a == axis and s != side]
-        if side in sides or (opposite and _swapped(claim, cue, passage, opposite[0])):
+        same = [c for c, (a, s) in theirs if a == axis and s == side]
+        if same and not opposite and _swapped(claim, cue, passage, same[0]):
+            opposite, swaps = same, swaps + 1  # "A outperformed B" against "B outperformed A"
+        elif side in sides or (opposite and _swapped(claim, cue, passage, opposite[0])):
             agree += 1
             object_votes[0] += cue.end <= i
-        elif opposite:
+            continue
+        if opposite:
             disagree += 1
             object_votes[1] += cue.end <= i
             # Report the cue's object ("increased density") over its subject ("warming increased").
             if first is None or (not first[3] and cue.end <= i):
                 first = (claim.said(cue), passage.said(opposite[0]), _phrase_at(claim, i), cue.end <= i)
-    if first is None or (disagree <= agree and not object_votes[1] > object_votes[0] == 0):
+    if first is None or (disagree <= agree and not object_votes[1] > object_votes[0] == 0 and not swaps):
         return None
     claimed, reported, about, _ = first
-    return CueFinding(
-        "direction-flip", claimed, reported, f'claim says "{claimed}", source says "{reported}" about "{about}"'
-    )
+    swapped = " with the sides of the comparison swapped" if claimed.lower() == reported.lower() else ""
+    message = f'claim says "{claimed}", source says "{reported}" about "{about}"{swapped}'
+    return CueFinding("direction-flip", claimed, reported, message)
 
 
 def _with_preposition(text: CueText, cue: CueMatch) -> str:
@@ -274,29 +283,12 @@ def _place_scope(claim: CueText, passage: CueText, sentences: set[int]) -> CueFi
             continue
         if k < len(toks) and toks[k].text == "et":  # "in Smith et al.": a citation
             continue
-        if _names_a_condition(toks, k) or _spelled_out(passage.surface(j, k), claim):
+        if names_a_condition(toks, k) or spelled_out(passage.surface(j, k), claim):
             continue
         if any(toks[n].root in claim_words for n in range(j, k)):
             continue
         return _scope_finding(claim, "setting", passage.surface(i, k))
     return None
-
-
-def _names_a_condition(toks: list[Token], k: int) -> bool:
-    """ "in the SRL case", "in the PCSO-524 group": the capitals name an arm or a condition of
-    the study (the word after them, past a code number, is one of ``not_place_heads``), not a place."""
-    while k < len(toks) and toks[k].text.isdigit():
-        k += 1
-    return k < len(toks) and toks[k].text in load_cues().not_place_heads
-
-
-def _spelled_out(term: str, claim: CueText) -> bool:
-    """Whether ``term`` is an acronym of words the claim writes out ("SRL": "semantic role labelling")."""
-    letters = "".join(c for c in term.lower() if c.isalpha())
-    if len(letters) < 2 or " " in term.strip():
-        return False
-    initials = "".join(t.text[0] for t in claim.toks if t.text[:1].isalpha())
-    return letters in initials
 
 
 def sentences(text: str) -> list[str]:

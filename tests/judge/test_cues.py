@@ -280,6 +280,18 @@ def test_the_object_of_the_direction_word_outweighs_a_subject_the_passage_shares
     assert "direction-flip" not in _codes(claim, agreeing)
 
 
+def test_a_comparison_turned_round_is_a_flip() -> None:
+    # Both say "higher" (or "outperformed"), but of the other side: the fixture kind
+    # "the two groups of a comparison swapped" (tests/fixtures/real_papers/README.md).
+    claim = "Nest density was higher in restored marshes than in ditched marshes."
+    found = _codes(claim, "Nest density was higher in ditched marshes than in restored marshes.")["direction-flip"]
+    assert (found.claim_cue, found.source_cue) == ("higher", "higher") and "swapped" in found.message
+    assert "direction-flip" not in _codes(claim, "Nest density was higher in restored marshes than in ditched marshes.")
+    passage = "In the maze, the rats outperformed the mice in both trials, relying more on their whiskers."
+    assert "direction-flip" in _codes("In the maze, the mice outperformed the rats in both trials.", passage)
+    assert "direction-flip" not in _codes("In the maze, the rats outperformed the mice in both trials.", passage)
+
+
 def test_same_direction_and_non_directions_are_not_flips() -> None:
     assert "direction-flip" not in _codes("Nest density rose in warm years.", "Nest density increased in warm years.")
     assert "direction-flip" not in _codes("Nest density fell by up to 20%.", "Nest density fell by up to 20%.")
