@@ -11,7 +11,9 @@ stream (lists in ``cue_lists.toml``), pure Python and fast, so they can run on e
   A hedge or booster right after a negation ("does not suggest", "did not show") does not
   count: the negation check speaks for it. Effect verbs ("increases", "reduce") are causal
   only in the claim, only as written (the adjective "lower" is not "lowers") and only with
-  an object after them ("density increases with depth" is not causal).
+  an object after them ("density increases with depth" is not causal). A claim of proof
+  ("proves", "clearly established", "definitively") is overstated even where the source
+  does not hedge, unless its sentence claims proof too.
 - **negation**: one side negates ("did not", "no significant", "absence of") within a small
   window (3 words before, 6 after, inside one clause) that holds at least two of the other
   side's content words (one if the claim has only one), and the other side does not negate
@@ -62,6 +64,13 @@ from sourcecheck.text import STOP_WORDS, sentence_spans
 _DIRECTION_WINDOW = 6  # words between a direction cue and the word it is about
 _WHOLE_PASSAGE_KINDS = frozenset(["species", "in-vitro"])
 _DETERMINERS = frozenset(["the", "a", "an", "its", "their", "our", "this", "these", "both"])
+# Words that claim proof: overstated unless the source claims it too, hedged or not (a
+# subset of Hyland's boosters, 1998, from memory; the fixture's "overstated" kind names them).
+_PROOF = re.compile(
+    r"\b(?:prove[sdn]?|proving|clearly establish\w*|definitive(?:ly)?|conclusive(?:ly)?|unequivocal(?:ly)?|undoubtedly"
+    r"|beyond (?:any )?doubt)\b",
+    re.IGNORECASE,
+)
 _COMPARING_VERBS = ("outperform", "underperform", "exceed", "surpass")  # "A exceeded B" compares A with B
 
 # --- the four checks ------------------------------------------------------------------------
@@ -97,6 +106,11 @@ def _overstated(claim: CueText, passage: CueText) -> CueFinding | None:
     if causal and links and not passage.labelled("causal", sentences):
         said, link = claim.said(min(causal, key=lambda c: c.start)), passage.said(links[0])
         return CueFinding("overstated", said, link, f'claim says "{said}", source reports an association: "{link}"')
+    proof = _PROOF.search(claim.raw)
+    negated = proof is not None and claim.raw[: proof.start()].rstrip().lower().endswith(("not", "never", "n't"))
+    if proof and not negated and not _PROOF.search(passage.raw):
+        said = proof.group(0)
+        return CueFinding("overstated", said, "", f'claim says "{said}"; the source claims no such certainty')
     return None
 
 

@@ -164,6 +164,19 @@ def test_effect_verb_without_object_is_not_causal() -> None:
     assert _codes("Green space reduces mortality.", passage)["overstated"].claim_cue == "reduces"
 
 
+def test_a_claim_of_proof_is_overstated_unless_the_source_claims_it_too() -> None:
+    # Strong boosters (Hyland, 1998, from memory) where the source states the finding plainly.
+    passage = "Warming raised nest density at all three marsh sites."
+    found = _codes("The marsh data prove that warming raised nest density.", passage)["overstated"]
+    assert found.claim_cue == "prove" and found.source_cue == ""
+    assert "overstated" in _codes("The marsh data clearly established that warming raised nest density.", passage)
+    assert "overstated" not in _codes("Warming definitively raised it.", "Warming definitively raised nest density.")
+    # A plain booster still needs a hedge in the source (test_negated_hedge_does_not_hedge).
+    assert "overstated" not in _codes("Warming clearly raised nest density.", passage)
+    assert "overstated" not in _codes("It is not proven that warming raised nest density.", passage)
+    assert "overstated" not in _codes("Warming raised nest density.", passage)
+
+
 def test_negated_hedge_does_not_hedge() -> None:
     found = _codes("Warming clearly raises nest density.", "The data do not suggest that warming raises nest density.")
     assert "overstated" not in found
