@@ -8,6 +8,8 @@ here on invented claims. The data format is that of ../shared/data/citint/README
 
 from __future__ import annotations
 
+from pathlib import Path
+
 import numpy as np
 import pytest
 from sklearn.linear_model import LogisticRegression
@@ -68,3 +70,9 @@ def test_a_held_out_fold_is_scored_by_a_fit_without_it() -> None:
     x_all, y_all, w_all = cit.pooled(x_sci, y_sci, judged, np.ones(len(judged), dtype=bool), 1.0)
     everything = cal.fit_logistic(x_all, y_all, sample_weight=w_all)
     assert not np.allclose(logits[held], features @ everything[0] + everything[1], atol=1e-3)
+
+
+def test_a_missing_data_folder_is_one_line_and_exit_2(tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    assert cit.main(["--data", str(tmp_path / "nowhere")]) == 2
+    err = capsys.readouterr().err.strip()
+    assert len(err.splitlines()) == 1 and "claims_train.jsonl: not found" in err
