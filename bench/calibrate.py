@@ -38,7 +38,15 @@ import numpy as np
 from rapidfuzz import fuzz
 
 from sourcecheck.index import DENSE_WEIGHT, RANK_FEATURES, RERANK_DEPTH, Ranker, rank_features
-from sourcecheck.judge import EVIDENCE_SEARCHED, FEATURE_NAMES, Calibration, Features, features_of, judge
+from sourcecheck.judge import (
+    EVIDENCE_SEARCHED,
+    FEATURE_NAMES,
+    Calibration,
+    Features,
+    features_of,
+    judge,
+    load_calibration,
+)
 from sourcecheck.model import Band, Hit
 from sourcecheck.pipeline import Prepared, prepare
 from sourcecheck.verdicts import CachedScorer
@@ -165,17 +173,20 @@ def fit_ranker(prepared: Prepared, pairs: list[Pair], weight: float) -> Ranker:
     return Ranker({name: round(float(w), 4) for name, w in zip(RANK_FEATURES, weights, strict=True) if w != 0.0})
 
 
-def fit_logistic(x: np.ndarray, y: np.ndarray, fit_bias: bool = True) -> tuple[np.ndarray, float]:
-    """L2-regularised logistic regression by Newton's method (IRLS)."""
+def fit_logistic(
+    x: np.ndarray, y: np.ndarray, fit_bias: bool = True, sample_weight: np.ndarray | None = None
+) -> tuple[np.ndarray, float]:
+    """L2-regularised logistic regression by Newton's method (IRLS), each row weighted by ``sample_weight``."""
     design = np.hstack([x, np.ones((len(x), 1))]) if fit_bias else x
+    weight = np.ones(len(x)) if sample_weight is None else np.asarray(sample_weight, dtype=float)
     beta = np.zeros(design.shape[1])
     penalty = L2 * np.eye(design.shape[1])
     if fit_bias:
         penalty[-1, -1] = 0.0
     for _ in range(50):
         p = 1.0 / (1.0 + np.exp(-design @ beta))
-        gradient = design.T @ (p - y) + penalty @ beta
-        hessian = design.T @ (design * (p * (1 - p))[:, None]) + penalty
+        gradient = design.T @ (weight * (p - y)) + penalty @ beta
+        hessian = design.T @ (design * (weight * p * (1 - p))[:, None]) + penalty
         step = np.linalg.solve(hessian, gradient)
         beta -= step
         if np.abs(step).max() < 1e-8:
@@ -236,6 +247,9 @@ def main() -> int:
     parser.add_argument("--cache", type=Path, default=ROOT / "bench" / "out" / "cache")
     parser.add_argument("--write", action="store_true", help="store the fitted parameters in the package")
     parser.add_argument("--verifier", help="another verifier model folder (default: the shipped one)")
+    parser.add_argument("--citint", type=Path, help="Citation-Integrity folder: also fit on its citing sentences")
+    parser.add_argument("--citint-share", type=float, default=0.25, help="their total weight, per SciFact fit row")
+    parser.add_argument("--citint-fit", action="store_true", help="keep (and --write) the pooled backing score")
     args = parser.parse_args()
 
     prepared = prepare(
@@ -278,6 +292,13 @@ def main() -> int:
     x_fit = np.array([features(p).vector() for p in fit])
     y_fit = np.array([p.label == "SUPPORT" for p in fit], dtype=float)
     weights, bias = fit_logistic(x_fit, y_fit)
+    if args.citint is not None:
+        x_holdout = np.array([features(p).vector() for p in holdout])
+        labels = np.array([p.label for p in holdout])
+        pooled_fit = citint_report(args, x_fit, y_fit, (weights, bias), (x_holdout, labels), best_weight)
+        if args.citint_fit:
+            weights, bias = pooled_fit
+            print("the backing score below is the pooled fit (--citint-fit)")
     provisional = Calibration(tuple(weights), bias, 0.5, 0.5, "fit")
 
     def topical(pair: Pair) -> float:
@@ -306,7 +327,16 @@ def main() -> int:
     scores = np.array([calibration.score(features(p)) for p in holdout])
     support = np.array([p.label == "SUPPORT" for p in holdout])
     area = auroc(scores, support)
-    print(f"\nholdout: evidence hit@1 {at1:.3f}, hit@3 {at3:.3f} (n={n}); AUROC SUPPORT vs rest {area:.3f}")
+    opposed_holdout = np.array([p.label in ("SUPPORT", "CONTRADICT") for p in holdout])
+    print(
+        f"\nholdout: evidence hit@1 {at1:.3f}, hit@3 {at3:.3f} (n={n}); AUROC SUPPORT vs rest {area:.3f}, "
+        f"SUPPORT vs CONTRADICT {auroc(scores[opposed_holdout], support[opposed_holdout]):.3f}"
+    )
+    shipped = np.array([load_calibration().score(features(p)) for p in holdout])
+    print(
+        f"the shipped calibration.json on the same holdout: AUROC SUPPORT vs rest {auroc(shipped, support):.3f}, "
+        f"SUPPORT vs CONTRADICT {auroc(shipped[opposed_holdout], support[opposed_holdout]):.3f}"
+    )
     print("reliability (holdout): range | pairs | mean score | share SUPPORT")
     table = reliability(scores, support)
     for row in table:
@@ -352,6 +382,46 @@ def main() -> int:
         target.write_text(json.dumps(payload, indent=2) + "\n", encoding="utf-8")
         print(f"\nwrote {target.relative_to(ROOT)}")
     return 0
+
+
+def citint_report(
+    args: argparse.Namespace,
+    x_fit: np.ndarray,
+    y_fit: np.ndarray,
+    scifact_only: tuple[np.ndarray, float],
+    holdout: tuple[np.ndarray, np.ndarray],
+    dense_weight: float,
+) -> tuple[np.ndarray, float]:
+    """Compare the SciFact-only backing score with one also fitted on real citing sentences.
+
+    Citation-Integrity is cross-validated by reference article (bench/citint.py's folds:
+    each citing sentence scored by a fit that never saw its article); SciFact by claim (its
+    holdout split, scored by the pooled fit on every article). Returns the pooled fit.
+    """
+    import citint  # bench/citint.py, beside this script
+
+    judged = citint.judged_claims(args.citint, args.cache, dense_weight, args.verifier)
+    fold_of = citint.article_folds(judged, 5)
+    unseen = citint.unseen_mask(judged)
+    features = np.array([j.features.vector() for j in judged])
+    truth = np.array([j.accurate for j in judged])
+    cross = citint.cross_validated_logits(x_fit, y_fit, judged, fold_of, args.citint_share, fit_logistic)
+    x, y, weights = citint.pooled(x_fit, y_fit, judged, np.ones(len(judged), dtype=bool), args.citint_share)
+    pooled_fit = fit_logistic(x, y, sample_weight=weights)
+    x_holdout, labels = holdout
+    support, opposed = labels == "SUPPORT", np.isin(labels, ("SUPPORT", "CONTRADICT"))
+    print("\n" + citint.header(judged, "| SciFact holdout: SUPPORT vs rest, vs CONTRADICT"))
+    for name, (coefficients, bias), citing in (
+        ("SciFact fit only", scifact_only, features @ scifact_only[0] + scifact_only[1]),
+        (f"+ citint folds (share {args.citint_share:g})", pooled_fit, cross),
+    ):
+        held = x_holdout @ coefficients + bias
+        print(
+            f"  {name:<32} {auroc(citing, truth):.3f}  {auroc(citing[unseen], truth[unseen]):.3f}   "
+            f"| {auroc(held, support):.3f}, {auroc(held[opposed], support[opposed]):.3f}"
+        )
+    print("  pooled weights:", {n: round(float(w), 3) for n, w in zip(FEATURE_NAMES, pooled_fit[0], strict=True)})
+    return pooled_fit
 
 
 def _citation(pair: Pair):

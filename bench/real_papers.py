@@ -51,6 +51,11 @@ BANDS = ("anchored", "loose", "conflict", "adrift", "unverifiable")
 BACKED_KINDS = ("faithful", "quote-exact")
 #: Kinds whose gold passage is not in the cited paper, so the page cannot be scored.
 NO_PAGE_KINDS = ("absent", "wrong-paper")
+#: Reason codes that also name a planted error of a kind, beside the fixture's own. A
+#: reversed claim ("increased" for "decreased", "differed" for "did not differ") is one the
+#: source states the opposite of, which is what ``contradicted`` (the verifier's reading)
+#: says; the word-level cue that names the flipped word is the fixture's reason.
+ALSO_RIGHT = {"direction": frozenset({"contradicted"})}
 
 _REFERENCE_SHAPE = re.compile(
     r"^(?P<head>.+?\.) (?P<journal>[^.]+?) (?P<volume>\d+(?:\(\d+\))?):(?P<pages>[^\s]+) "
@@ -191,10 +196,12 @@ def page_hit(row: dict, got: Outcome | None, slack: int = 0) -> bool | None:
 
 
 def right_reason(row: dict, got: Outcome | None) -> bool:
-    """A planted error is caught: not anchored, and the expected reason code is among the reasons."""
+    """A planted error is caught: not anchored, and the expected reason code (or one of
+    ALSO_RIGHT for its kind) is among the reasons."""
     if got is None or got.band == "anchored":
         return False
-    return row["reason"] is None or row["reason"] in {code for code, _ in got.reasons}
+    given = {code for code, _ in got.reasons}
+    return row["reason"] is None or row["reason"] in given or bool(given & ALSO_RIGHT.get(row["kind"], frozenset()))
 
 
 def is_miss(row: dict, got: Outcome | None) -> bool:

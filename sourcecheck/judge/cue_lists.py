@@ -59,6 +59,7 @@ class CueLists:
     scope_wider: dict[str, tuple[str, ...]]
     scope_covers: dict[str, tuple[str, ...]]
     not_places: frozenset[str]
+    not_place_heads: frozenset[str]
     ignore: frozenset[str]
 
 
@@ -104,5 +105,6 @@ def load_cues() -> CueLists:
         scope_wider={k: _strings(v, f"scope.wider.{k}") for k, v in scope["wider"].items()},
         scope_covers={k: _strings(v, f"scope.covers.{k}") for k, v in scope["covers"].items()},
         not_places=frozenset(_strings(scope["not_places"], "scope.not_places")),
+        not_place_heads=frozenset(_strings(scope["not_place_heads"], "scope.not_place_heads")),
         ignore=frozenset(_strings(data["shared"]["ignore"], "shared.ignore")),
     )

@@ -310,3 +310,23 @@ class CueText:
         if need == 0:
             return everything
         return {s for s, roots in per.items() if len(roots & claim_roots) >= need} or everything
+
+
+# --- scope helpers ----------------------------------------------------------------------------
+
+
+def names_a_condition(toks: list[Token], k: int) -> bool:
+    """ "in the SRL case", "in the PCSO-524 group": the capitals name an arm or a condition of
+    the study (the word after them, past a code number, is one of ``not_place_heads``), not a place."""
+    while k < len(toks) and toks[k].text.isdigit():
+        k += 1
+    return k < len(toks) and toks[k].text in load_cues().not_place_heads
+
+
+def spelled_out(term: str, claim: CueText) -> bool:
+    """Whether ``term`` is an acronym of words the claim writes out ("SRL": "semantic role labelling")."""
+    letters = "".join(c for c in term.lower() if c.isalpha())
+    if len(letters) < 2 or " " in term.strip():
+        return False
+    initials = "".join(t.text[0] for t in claim.toks if t.text[:1].isalpha())
+    return letters in initials

@@ -11,7 +11,9 @@ stream (lists in ``cue_lists.toml``), pure Python and fast, so they can run on e
   A hedge or booster right after a negation ("does not suggest", "did not show") does not
   count: the negation check speaks for it. Effect verbs ("increases", "reduce") are causal
   only in the claim, only as written (the adjective "lower" is not "lowers") and only with
-  an object after them ("density increases with depth" is not causal).
+  an object after them ("density increases with depth" is not causal). A claim of proof
+  ("proves", "clearly established", "definitively") is overstated even where the source
+  does not hedge, unless its sentence claims proof too.
 - **negation**: one side negates ("did not", "no significant", "absence of") within a small
   window (3 words before, 6 after, inside one clause) that holds at least two of the other
   side's content words (one if the claim has only one), and the other side does not negate
@@ -22,16 +24,21 @@ stream (lists in ``cue_lists.toml``), pure Python and fast, so they can run on e
   ("is not" + "not restricted to": a widening, not a denial). Double negation is handled
   only in its plainest form: "not"/"no"/"never" directly before "without", "fail to",
   "lack of" cancels both ("did not fail to"). Affixal negation ("unchanged", "not
-  unlike") is not read at all.
+  unlike") is not read at all. A claim that negates ("did not change X") agrees with a
+  passage sentence that states no effect ("no statistically significant difference in X"),
+  however far its "no" stands from X.
 - **direction-flip**: for each content word the claim and passage share, the nearest
   direction word in the same clause (within 6 words; ties go to the word before, as in
   "increased density") is looked up on each side. The claim flips the passage when more
   shared words disagree (opposite sides of one axis: increase/decrease, improve/worsen,
-  positive/negative correlation ...) than agree. Comparing word by word means "decreased
+  positive/negative correlation ...) than agree, or when the words after the claim's
+  direction word (its object: what was increased) only disagree, whatever its subject
+  does ("women increased X" against "women increased Y, while reducing X"). Comparing word by word means "decreased
   predation led to increased density" agrees with a claim of "increased density": only the
   object "density" is shared. "Higher in A than in B" agrees with "lower in B than in A"
-  (the words either side of "than" are compared swapped). A direction word right after a
-  negation is left to the negation check ("did not decrease").
+  (the words either side of "than" are compared swapped), and "higher in B than in A" or
+  "B outperformed A" turns it round. A direction word right after a negation is left to the
+  negation check ("did not decrease").
 - **scope-wider**: the passage restricts the finding (species, cell studies, a subgroup of
   people, one site, the laboratory, "in <Place>") and the claim neither keeps that
   restriction (same term, a synonym, or a covering term such as "animal models") nor is
@@ -39,7 +46,9 @@ stream (lists in ``cue_lists.toml``), pure Python and fast, so they can run on e
   "worldwide") is reported when it has one. Species and cell-study terms count anywhere in
   the passage unless it also speaks of humans or in-vivo work; subgroup, setting and place
   terms count only in the sentences that share the claim's words, and a subgroup found
-  with its opposite ("women" with "men") restricts nothing.
+  with its opposite ("women" with "men") restricts nothing. A capitalised term after "in"
+  is no place when it names an arm or a condition ("in the PCSO group", "in the SRL case")
+  or is an acronym of words the claim writes out ("SRL": "semantic role labelling").
 
 Each check returns at most one finding, so a report line stays readable.
 """
@@ -49,12 +58,20 @@ from __future__ import annotations
 import re
 
 from sourcecheck.judge.cue_lists import CueFinding, load_cues
-from sourcecheck.judge.cue_text import CueMatch, CueText, Label, tokens_of
+from sourcecheck.judge.cue_text import CueMatch, CueText, Label, names_a_condition, spelled_out, tokens_of
 from sourcecheck.text import STOP_WORDS, sentence_spans
 
 _DIRECTION_WINDOW = 6  # words between a direction cue and the word it is about
 _WHOLE_PASSAGE_KINDS = frozenset(["species", "in-vitro"])
 _DETERMINERS = frozenset(["the", "a", "an", "its", "their", "our", "this", "these", "both"])
+# Words that claim proof: overstated unless the source claims it too, hedged or not (a
+# subset of Hyland's boosters, 1998, from memory; the fixture's "overstated" kind names them).
+_PROOF = re.compile(
+    r"\b(?:prove[sdn]?|proving|clearly establish\w*|definitive(?:ly)?|conclusive(?:ly)?|unequivocal(?:ly)?|undoubtedly"
+    r"|beyond (?:any )?doubt)\b",
+    re.IGNORECASE,
+)
+_COMPARING_VERBS = ("outperform", "underperform", "exceed", "surpass")  # "A exceeded B" compares A with B
 
 # --- the four checks ------------------------------------------------------------------------
 
@@ -89,6 +106,11 @@ def _overstated(claim: CueText, passage: CueText) -> CueFinding | None:
     if causal and links and not passage.labelled("causal", sentences):
         said, link = claim.said(min(causal, key=lambda c: c.start)), passage.said(links[0])
         return CueFinding("overstated", said, link, f'claim says "{said}", source reports an association: "{link}"')
+    proof = _PROOF.search(claim.raw)
+    negated = proof is not None and claim.raw[: proof.start()].rstrip().lower().endswith(("not", "never", "n't"))
+    if proof and not negated and not _PROOF.search(passage.raw):
+        said = proof.group(0)
+        return CueFinding("overstated", said, "", f'claim says "{said}"; the source claims no such certainty')
     return None
 
 
@@ -101,6 +123,8 @@ def _negation(claim: CueText, passage: CueText) -> CueFinding | None:
             if len(shared) >= need and not any(r & shared for _, r in claim_scopes):
                 said = passage.said(cue)
                 return CueFinding("negation", "", said, f'source negates it: "{said}"; the claim does not')
+    if _NO_EFFECT.search(passage.raw):
+        return None  # "did not change X" and "no significant difference in X" agree
     for cue, roots in claim_scopes:
         own = roots & claim.roots
         shared = own & passage.roots
@@ -130,13 +154,15 @@ def _axis(cue: CueMatch) -> tuple[str, str]:
 
 
 def _comparison(text: CueText, cue: CueMatch) -> tuple[set[str], set[str]] | None:
-    """For "A is higher than B": the content words of A and of B, else None."""
+    """For "A is higher than B" or "A outperformed B": the content words of A and of B, else None."""
     clause = text.toks[cue.start].clause
     than = next(
         (k for k in range(cue.end, min(len(text.toks), cue.end + 8)) if text.toks[k].text == "than"),
         None,
     )
-    if than is None or text.toks[than].clause != clause:
+    if text.toks[cue.start].text.startswith(_COMPARING_VERBS):
+        than = cue.start
+    elif than is None or text.toks[than].clause != clause:
         return None
     in_clause = [i for i in text.content if text.toks[i].clause == clause and not cue.start <= i < cue.end]
     return {text.toks[i].root for i in in_clause if i < than}, {text.toks[i].root for i in in_clause if i > than}
@@ -165,6 +191,8 @@ def _direction(claim: CueText, passage: CueText) -> CueFinding | None:
     for j in passage.content:
         passage_at.setdefault(passage.toks[j].root, []).append(j)
     agree, disagree = 0, 0
+    object_votes = [0, 0]  # agreeing, disagreeing words that follow their cue (its object)
+    swaps = 0  # words whose comparison the claim turns round; one decides
     first: tuple[str, str, str, bool] | None = None
     seen: set[str] = set()
     for i in claim.content:
@@ -179,19 +207,25 @@ def _direction(claim: CueText, passage: CueText) -> CueFinding | None:
         theirs = [(c, _axis(c)) for c in (_nearest(passage, j) for j in passage_at[root]) if c is not None]
         sides = {s for c, (a, s) in theirs if a == axis}
         opposite = [c for c, (a, s) in theirs if a == axis and s != side]
-        if side in sides or (opposite and _swapped(claim, cue, passage, opposite[0])):
+        same = [c for c, (a, s) in theirs if a == axis and s == side]
+        if same and not opposite and _swapped(claim, cue, passage, same[0]):
+            opposite, swaps = same, swaps + 1  # "A outperformed B" against "B outperformed A"
+        elif side in sides or (opposite and _swapped(claim, cue, passage, opposite[0])):
             agree += 1
-        elif opposite:
+            object_votes[0] += cue.end <= i
+            continue
+        if opposite:
             disagree += 1
+            object_votes[1] += cue.end <= i
             # Report the cue's object ("increased density") over its subject ("warming increased").
             if first is None or (not first[3] and cue.end <= i):
                 first = (claim.said(cue), passage.said(opposite[0]), _phrase_at(claim, i), cue.end <= i)
-    if first is None or disagree <= agree:
+    if first is None or (disagree <= agree and not object_votes[1] > object_votes[0] == 0 and not swaps):
         return None
     claimed, reported, about, _ = first
-    return CueFinding(
-        "direction-flip", claimed, reported, f'claim says "{claimed}", source says "{reported}" about "{about}"'
-    )
+    swapped = " with the sides of the comparison swapped" if claimed.lower() == reported.lower() else ""
+    message = f'claim says "{claimed}", source says "{reported}" about "{about}"{swapped}'
+    return CueFinding("direction-flip", claimed, reported, message)
 
 
 def _with_preposition(text: CueText, cue: CueMatch) -> str:
@@ -263,6 +297,8 @@ def _place_scope(claim: CueText, passage: CueText, sentences: set[int]) -> CueFi
             continue
         if k < len(toks) and toks[k].text == "et":  # "in Smith et al.": a citation
             continue
+        if names_a_condition(toks, k) or spelled_out(passage.surface(j, k), claim):
+            continue
         if any(toks[n].root in claim_words for n in range(j, k)):
             continue
         return _scope_finding(claim, "setting", passage.surface(i, k))
@@ -312,8 +348,9 @@ _NOUN_BEFORE = frozenset(["of", "in", "from"])
 # Words that state there is no effect (common practice, no source).
 _NO_EFFECT = re.compile(
     r"\b(?:similar|same|unrelated|independent of|unchanged|incapable of|ineffective|inactive against"
-    r"|no (?:(?:known|significant|clear|detectable|apparent) )?(?:difference|effect|association|change|impact|"
-    r"relationship|link|increase|decrease|reduction)|not (?:associated|related|linked|affect\w*|change\w*|differ\w*)"
+    r"|no (?:(?:statistically|known|significant|clear|detectable|apparent) ){0,2}"
+    r"(?:difference|effect|association|change|impact|relationship|link|increase|decrease|reduction)"
+    r"|not (?:associated|related|linked|affect\w*|change\w*|differ\w*)"
     r"|does not|did not|do not|has no|have no|had no)\b",
     re.IGNORECASE,
 )

@@ -5,7 +5,8 @@ so a quotation is held to a stricter test than paraphrase: it must appear verbat
 extracted from a PDF is rarely byte-identical to what a writer typed, though, so repairs
 that cannot change the wording are made on both sides before comparing:
 
-* whitespace runs collapse to one space; a line-end hyphen ("mar-\\nsh") is joined;
+* whitespace runs collapse to one space, and a space the PDF text lost between two words
+  ("F1as") is allowed; a line-end hyphen ("mar-\\nsh") is joined;
 * ligatures (ﬁ ﬂ ﬀ ﬃ ﬄ) are unfolded; soft hyphens and zero-width characters dropped;
 * curly, straight, low and angle quotation marks and apostrophes count as one mark,
   single or double alike (a quotation inside a quotation swaps double for single marks;
@@ -171,6 +172,8 @@ def _literal_pattern(text: str, flex_case: bool) -> str:
             out.append(f"[{re.escape(char.upper())}{re.escape(char.lower())}]")
         elif char == "-" and 0 < i < len(text) - 1 and text[i - 1].isalnum() and text[i + 1].isalnum():
             out.append("-?")  # a real hyphen at a line end was joined like a break hyphen
+        elif char == " ":
+            out.append(" ?")  # PDF text can lose the space between two words ("F1as the baseline")
         else:
             out.append(re.escape(char))
     return "".join(out)

@@ -73,6 +73,19 @@ def test_logistic_fit_matches_scikit_learn_with_the_same_penalty() -> None:
     assert bias == pytest.approx(reference.intercept_[0], abs=1e-4)
 
 
+def test_weighted_logistic_fit_matches_scikit_learns_sample_weight() -> None:
+    # Two data sets pooled with unequal row weights (bench/calibrate.py --citint): the
+    # weighted log-loss is sklearn's LogisticRegression.fit(..., sample_weight=...).
+    x = RNG.normal(size=(300, 3))
+    y = (x @ np.array([1.0, -1.0, 0.5]) + RNG.normal(size=300) > 0).astype(float)
+    weight = np.where(np.arange(300) < 100, 1.0, 0.25)
+    weights, bias = cal.fit_logistic(x, y, sample_weight=weight)
+    reference = LogisticRegression(C=1 / cal.L2, tol=1e-10, max_iter=10_000).fit(x, y, sample_weight=weight)
+    assert weights == pytest.approx(reference.coef_[0], abs=1e-4)
+    assert bias == pytest.approx(reference.intercept_[0], abs=1e-4)
+    assert not np.allclose(weights, cal.fit_logistic(x, y)[0], atol=1e-3)
+
+
 def test_logistic_fit_without_bias_matches_scikit_learn_without_intercept() -> None:
     # The pairwise ranker's fit: differences of feature vectors, no intercept (RankNet with
     # a linear scorer, Burges et al. 2005; from memory).

@@ -202,6 +202,18 @@ def test_scores_count_pages_reasons_and_flags() -> None:
     assert listed == ["rp002", "rp004"]  # wrong band; the faithful one is on an "also" page
 
 
+def test_a_reversal_read_as_contradicted_has_a_right_reason_and_other_kinds_do_not() -> None:
+    # tests/fixtures/real_papers/README.md: a "direction" claim says the opposite of the
+    # paper; "contradicted" is the reason that says the source states the opposite.
+    bench = _load()
+    contradicted = bench.Outcome("conflict", (("contradicted", ""),), 7, "text")
+    reversal = {"kind": "direction", "band": "conflict", "reason": "negation", "page": 7}
+    overstated = {"kind": "overstated", "band": "loose", "reason": "overstated", "page": 7}
+    assert bench.right_reason(reversal, contradicted)
+    assert not bench.right_reason(overstated, contradicted)
+    assert not bench.right_reason(reversal, bench.Outcome("anchored", (("contradicted", ""),), 7, "text"))
+
+
 def test_bench_runs_the_pipeline_on_an_invented_paper(tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
     papers = tmp_path / "papers"
     papers.mkdir()

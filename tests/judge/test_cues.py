@@ -164,6 +164,19 @@ def test_effect_verb_without_object_is_not_causal() -> None:
     assert _codes("Green space reduces mortality.", passage)["overstated"].claim_cue == "reduces"
 
 
+def test_a_claim_of_proof_is_overstated_unless_the_source_claims_it_too() -> None:
+    # Strong boosters (Hyland, 1998, from memory) where the source states the finding plainly.
+    passage = "Warming raised nest density at all three marsh sites."
+    found = _codes("The marsh data prove that warming raised nest density.", passage)["overstated"]
+    assert found.claim_cue == "prove" and found.source_cue == ""
+    assert "overstated" in _codes("The marsh data clearly established that warming raised nest density.", passage)
+    assert "overstated" not in _codes("Warming definitively raised it.", "Warming definitively raised nest density.")
+    # A plain booster still needs a hedge in the source (test_negated_hedge_does_not_hedge).
+    assert "overstated" not in _codes("Warming clearly raised nest density.", passage)
+    assert "overstated" not in _codes("It is not proven that warming raised nest density.", passage)
+    assert "overstated" not in _codes("Warming raised nest density.", passage)
+
+
 def test_negated_hedge_does_not_hedge() -> None:
     found = _codes("Warming clearly raises nest density.", "The data do not suggest that warming raises nest density.")
     assert "overstated" not in found
@@ -212,6 +225,16 @@ def test_no_negation_flag_when_both_negate() -> None:
     )
 
 
+def test_a_claim_of_no_change_agrees_with_a_passage_reporting_no_difference() -> None:
+    # "did not change X" and "no statistically significant difference in X" state the same
+    # null result, though the passage's "no" stands too far from X for the window to reach it.
+    passage = "There was no statistically significant difference identified in the average daily nest density."
+    assert "negation" not in _codes("Warming did not change the average daily nest density.", passage)
+    # A claim that negates a passage reporting an effect is still flagged.
+    found = _codes("Warming did not change average daily nest density.", "Warming raised average daily nest density.")
+    assert found["negation"].claim_cue == "did not"
+
+
 def test_negation_about_something_else_is_ignored() -> None:
     passage = "Nest density rose with warming at all sites. Predators were not observed at the colony."
     assert "negation" not in _codes("Warming raised nest density.", passage)
@@ -253,6 +276,33 @@ def test_swapped_comparison_is_not_a_flip() -> None:
     claim = "Nest density was higher in restored marshes than in ditched marshes."
     assert "direction-flip" not in _codes(claim, "Nest density was lower in ditched marshes than in restored marshes.")
     assert "direction-flip" in _codes(claim, "Nest density was lower in restored marshes than in ditched marshes.")
+
+
+def test_the_object_of_the_direction_word_outweighs_a_subject_the_passage_shares() -> None:
+    # The passage's subject goes with another verb ("increased their fibre"); what the claim
+    # says was increased is what the passage says was reduced.
+    claim = "Treated women increased the share of their energy intake from saturated fats."
+    passage = (
+        "Treated women increased their fibre consumption, while reducing the share of their energy from saturated fats."
+    )
+    found = _codes(claim, passage)["direction-flip"]
+    assert (found.claim_cue, found.source_cue) == ("increased", "reducing")
+    agreeing = (
+        "Treated women increased their fibre consumption and increased the share of their energy from saturated fats."
+    )
+    assert "direction-flip" not in _codes(claim, agreeing)
+
+
+def test_a_comparison_turned_round_is_a_flip() -> None:
+    # Both say "higher" (or "outperformed"), but of the other side: the fixture kind
+    # "the two groups of a comparison swapped" (tests/fixtures/real_papers/README.md).
+    claim = "Nest density was higher in restored marshes than in ditched marshes."
+    found = _codes(claim, "Nest density was higher in ditched marshes than in restored marshes.")["direction-flip"]
+    assert (found.claim_cue, found.source_cue) == ("higher", "higher") and "swapped" in found.message
+    assert "direction-flip" not in _codes(claim, "Nest density was higher in restored marshes than in ditched marshes.")
+    passage = "In the maze, the rats outperformed the mice in both trials, relying more on their whiskers."
+    assert "direction-flip" in _codes("In the maze, the mice outperformed the rats in both trials.", passage)
+    assert "direction-flip" not in _codes("In the maze, the rats outperformed the mice in both trials.", passage)
 
 
 def test_same_direction_and_non_directions_are_not_flips() -> None:
@@ -304,6 +354,18 @@ def test_single_site_and_place_qualifiers() -> None:
     assert (found.claim_cue, found.source_cue) == ("worldwide", "in Norway")
     assert "scope-wider" not in _codes("In Norway nest density rose by 18%.", "Nest density rose by 18% in Norway.")
     assert "scope-wider" not in _codes("Nest density rose by 18%.", "Nest density rose by 18% (in Table 2).")
+
+
+def test_a_capitalised_arm_of_the_study_or_a_spelled_out_acronym_is_no_place() -> None:
+    # "in the SRL case" names a task the claim spells out; "in the NDX-5 group" an arm of a
+    # trial; "in the UK" still limits the finding to a place.
+    claim = "For semantic role labelling, the new model needs a tenth of the training data."
+    assert "scope-wider" not in _codes(claim, "In the SRL case, the new model needs a tenth of the training data.")
+    claim = "Children given the extract recalled pictures more accurately."
+    passage = "Children in the NDX-524 group recalled pictures more accurately."
+    assert "scope-wider" not in _codes(claim, passage)
+    found = _codes(claim, "Children in the UK recalled pictures more accurately.")["scope-wider"]
+    assert found.source_cue == "in the UK"
 
 
 @pytest.mark.parametrize(

@@ -37,6 +37,14 @@ def test_verbatim_across_a_line_end_hyphen_and_ligatures() -> None:
     assert drift_message(finding) == "quoted text found verbatim on p. 2"
 
 
+def test_a_space_lost_in_the_pdf_text_is_no_drift() -> None:
+    # Extraction that joins two words ("F1as") changes no wording; an added or changed
+    # word still does.
+    pages = [(8, "In the tagging case, the model with 1% of the data has about the same F1as the baseline.")]
+    assert _one('They report "about the same F1 as the baseline" [4].', pages).verbatim
+    assert not _one('They report "about the same F1 score as the baseline" [4].', pages).verbatim
+
+
 def test_a_changed_word_is_reported_with_its_original() -> None:
     finding = _one('Okafor notes that "many marsh bees did not return to the first site" [4].')
     assert not finding.verbatim
