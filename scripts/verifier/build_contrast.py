@@ -18,7 +18,10 @@ nothing the claim says. Each kind is capped at ``--per-kind`` pairs (a seeded sa
 negations, the easiest edit to make, do not crowd out the rest. An edited pair keeps its
 original's claim group and split, so validation stays split by claim. Writes
 ``OUT/pairs.jsonl`` (first-stage pairs plus the edits, sources "contrast:KIND/FAMILY") and
-``OUT/stats.json``. Nothing is written into the repository.
+``OUT/stats.json``. A first try with contrast pairs alone taught the model that an opposite
+word anywhere means contradiction (faithful paraphrases and exact quotations of real papers
+read as reversals), so supported "balance" pairs come with them (``balance_pairs``).
+Nothing is written into the repository.
 """
 
 from __future__ import annotations
@@ -96,6 +99,76 @@ def contrast_pairs(pairs: list[Pair], per_kind: int, seed: int = SEED) -> tuple[
     return made, counts
 
 
+# Edits that mean the same when made to both sides: "X avoided Y" against "X avoided Y and Z".
+CONSISTENT_EDITS = (
+    "negation-inserted",
+    "direction-swapped",
+    "antonym-swapped",
+    "comparative-swapped",
+    "verb-antonym-swapped",
+)
+# Ways a manuscript attributes a source's sentence to it (common practice, no source); invented names.
+ATTRIBUTIONS = (
+    'Okafor and colleagues write that "{quote}"',
+    'As Lindqvist et al. put it, "{quote}"',
+    "The authors report that {lower}",
+    "Brandt and Sato found that {lower}",
+    'According to the study, "{quote}"',
+)
+
+
+def _swap(before: str, after: str) -> tuple[str, str] | None:
+    """The one word an edit replaced, as (old, new) in lower case; None if it changed more or nothing."""
+    old, new = before.lower().split(), after.lower().split()
+    if len(old) != len(new):
+        return None
+    changed = [(a, b) for a, b in zip(old, new, strict=True) if a != b]
+    return changed[0] if len(changed) == 1 else None
+
+
+def balance_pairs(pairs: list[Pair], seed: int = SEED) -> tuple[list[Pair], Counter[str]]:
+    """Supported pairs that keep the contrast edits from teaching "an opposite word means contradiction".
+
+    - the same edit made to the claim and to the evidence of a supported pair: still supported;
+    - a scientific evidence sentence quoted or reported with an attribution, against itself:
+      supported (an exact quotation must not read as a reversal).
+    """
+    rng = random.Random(f"{seed}:balance")
+    made: list[Pair] = []
+    seen = {(p.claim, p.evidence) for p in pairs}
+    counts: Counter[str] = Counter()
+
+    def add(claim: str, evidence: str, kind: str, pair: Pair) -> None:
+        if (claim, evidence) in seen:
+            return
+        seen.add((claim, evidence))
+        made.append(Pair(claim, evidence, SUPPORTS, f"balance:{kind}/{family(pair)}", pair.group, pair.split))
+        counts[f"{kind}/{family(pair)}"] += 1
+
+    for pair in pairs:
+        if pair.label != SUPPORTS or family(pair) == "counterfactual":
+            continue
+        for kind in CONSISTENT_EDITS:
+            claim, evidence = EDITS[kind](pair.claim), EDITS[kind](pair.evidence)
+            if (
+                claim
+                and evidence
+                and _swap(pair.claim, claim)
+                and _swap(pair.claim, claim) == _swap(pair.evidence, evidence)
+            ):
+                add(claim, evidence, f"both-{kind}", pair)
+    quoted: set[str] = set()
+    for pair in pairs:
+        sentence = pair.evidence.strip()
+        if family(pair) not in SELF_FAMILIES or sentence in quoted or not 40 <= len(sentence) <= 300:
+            continue
+        quoted.add(sentence)
+        template = rng.choice(ATTRIBUTIONS)
+        body = sentence.rstrip(".")
+        add(template.format(quote=body, lower=body[:1].lower() + body[1:]), sentence, "attributed", pair)
+    return made, counts
+
+
 def main(argv: list[str] | None = None) -> int:
     parser = argparse.ArgumentParser(description=__doc__.split("\n\n")[0])
     parser.add_argument("--pairs", type=Path, default=DEFAULT_DIR / "pairs.jsonl", help="the first stage's pairs")
@@ -107,10 +180,18 @@ def main(argv: list[str] | None = None) -> int:
         return 2
     first = list(read_pairs(args.pairs))
     edited, counts = contrast_pairs(first, args.per_kind)
-    written = write_pairs(args.out / "pairs.jsonl", first + edited)
-    stats = {"first_stage_pairs": len(first), "contrast_pairs": len(edited), "kinds": dict(sorted(counts.items()))}
+    balanced, balance_counts = balance_pairs(first)
+    written = write_pairs(args.out / "pairs.jsonl", first + edited + balanced)
+    stats = {
+        "first_stage_pairs": len(first),
+        "contrast_pairs": len(edited),
+        "kinds": dict(sorted(counts.items())),
+        "balance_pairs": len(balanced),
+        "balance_kinds": dict(sorted(balance_counts.items())),
+    }
     (args.out / "stats.json").write_text(json.dumps(stats, indent=2) + "\n", encoding="utf-8")
     print("\n".join(f"contrast {kind}: {n}" for kind, n in sorted(counts.items())))
+    print("\n".join(f"balance {kind}: {n}" for kind, n in sorted(balance_counts.items())))
     print(f"wrote {written} pairs to {args.out / 'pairs.jsonl'}")
     return 0
 

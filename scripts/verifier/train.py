@@ -9,7 +9,7 @@ Usage::
 
 Reads ``pairs.jsonl`` written by build_data.py (or by build_contrast.py, for the second
 stage). Every epoch trains on a fresh seeded sample of each data set: ``--sample NAME=N``
-caps a data set (snli, cad, scifact, counterfactual, citint, contrast) at N pairs per epoch,
+caps a data set (snli, cad, scifact, counterfactual, citint, contrast, balance) at N pairs per epoch,
 the others are taken whole. A two-core laptop cannot afford
 every NLI pair, and the scientific pairs are the domain the tool meets, so they are kept whole.
 Batches hold pairs of similar length (dynamic padding), tokenised by the same code the
@@ -45,7 +45,7 @@ from pair_records import LABELS, ROOT, TRAIN, VAL, Pair, read_pairs
 from sourcecheck.judge import encode_pairs, load_tokenizer
 
 DEFAULT_DATA = ROOT / "bench" / "out" / "verifier"
-FAMILIES = ("snli", "cad", "scifact", "counterfactual", "citint", "contrast")
+FAMILIES = ("snli", "cad", "scifact", "counterfactual", "citint", "contrast", "balance")
 
 
 def base_model_dir() -> Path:

@@ -16,7 +16,7 @@ import pytest
 sys.path.insert(0, str(Path(__file__).resolve().parents[3] / "scripts" / "verifier"))
 
 import contrast_edits
-from build_contrast import contrast_pairs
+from build_contrast import balance_pairs, contrast_pairs
 from pair_records import CONTRADICTS, SUPPORTS, Pair
 
 
@@ -82,3 +82,23 @@ def test_contrast_pairs_cap_each_kind() -> None:
     made, counts = contrast_pairs(pairs, per_kind=5)
     assert sum(n for kind, n in counts.items() if kind.startswith("comparative-swapped")) == 5
     assert len({(p.claim, p.evidence) for p in made}) == len(made)
+
+
+def test_balance_pairs_keep_an_edit_made_to_both_sides_supported() -> None:
+    pair = Pair("Warm soil delayed emergence.", "Warm soil delayed emergence by a week.", SUPPORTS, "scifact", "c1")
+    made, counts = balance_pairs([pair])
+    both = [p for p in made if p.source.startswith("balance:both-")]
+    assert [(p.claim, p.evidence) for p in both] == [
+        ("Warm soil rushed emergence.", "Warm soil rushed emergence by a week.")
+    ]
+    assert all(p.label == SUPPORTS and p.group == "c1" for p in made)
+    assert not any("negation" in kind for kind in counts)  # "not" before another verb would break the entailment
+
+
+def test_balance_pairs_quote_scientific_sentences_with_an_attribution() -> None:
+    sentence = "Scraped plots held a mean of 3.4 nests per square metre."
+    made, _ = balance_pairs([Pair("Plots held nests.", sentence, "neither", "scifact", "c2", "val")])
+    quoted = [p for p in made if p.source.startswith("balance:attributed")]
+    assert len(quoted) == 1
+    assert quoted[0].evidence == sentence and quoted[0].label == SUPPORTS and quoted[0].split == "val"
+    assert "scraped plots held a mean of 3.4 nests per square metre" in quoted[0].claim.lower()
