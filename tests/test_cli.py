@@ -210,3 +210,11 @@ def test_sources_folder_without_a_readable_pdf_is_one_line(
     ]
     assert all(r["source"] is None and r["closest_source"] is None for r in data["references"])
     assert "Traceback" not in err
+
+
+@pytest.mark.parametrize("jobs", ["0", "-2", "many"])
+def test_jobs_must_be_a_positive_whole_number(capsys: pytest.CaptureFixture[str], jobs: str) -> None:
+    with pytest.raises(SystemExit) as exit_info:
+        main(["check", "draft.md", "--sources", "pdfs", "--jobs", jobs])
+    assert exit_info.value.code == 2
+    assert "--jobs" in capsys.readouterr().err
