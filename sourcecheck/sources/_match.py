@@ -226,12 +226,29 @@ def _id_evidence(reference: Reference, source: Source, page_dois: set[str]) -> _
     return 0.0, None, 0.0, ""
 
 
-def pair_evidence(reference: Reference, source: Source, page_dois: set[str]) -> Evidence:
-    """All the evidence that ``reference`` cites ``source``, weighed (see sources/_evidence.py)."""
+#: A source's title candidates by (file, title length in words): see :func:`pair_evidence`.
+TitleLines = dict[tuple[str, int], list[str]]
+
+
+def pair_evidence(
+    reference: Reference, source: Source, page_dois: set[str], title_lines: TitleLines | None = None
+) -> Evidence:
+    """All the evidence that ``reference`` cites ``source``, weighed (see sources/_evidence.py).
+
+    ``title_lines`` keeps each source's title candidates for one matching run: every entry
+    is weighed against every file, and a library of 1,000 files made the same candidates
+    for every entry of a 1,000-entry list.
+    """
     kinds: list[_Kind] = [_id_evidence(reference, source, page_dois)]
     closeness = 0.0
     if reference.title and _fold(reference.title):
-        parsed = title_similarity(reference.title, title_candidates(source, len(reference.title.split())))
+        n = len(reference.title.split())
+        lines = title_lines.get((source.path, n)) if title_lines is not None else None
+        if lines is None:
+            lines = title_candidates(source, n)
+            if title_lines is not None:
+                title_lines[(source.path, n)] = lines
+        parsed = title_similarity(reference.title, lines)
         closeness = parsed
         kinds.append((TITLE_POINTS * parsed, MatchMethod.TITLE, parsed, f"title alike ({parsed:.2f})"))
     found, close, title = best_title_in_entry(source, reference.text)
@@ -299,7 +316,8 @@ def match_sources(
     refs = [r for r in references if r.key not in outcome.matches]
     free = [s for s in sources if s.path not in used]
     page_dois = {s.path: set(s.identity.dois) | _doi_evidence(s) for s in free}
-    evidence = [[pair_evidence(r, s, page_dois[s.path]) for s in free] for r in refs]
+    title_lines: TitleLines = {}
+    evidence = [[pair_evidence(r, s, page_dois[s.path], title_lines) for s in free] for r in refs]
     points = np.array([[e.points for e in row] for row in evidence], dtype=float).reshape(len(refs), len(free))
     chosen, ties = assign(points, MATCH_FLOOR)
     for pair in chosen:
