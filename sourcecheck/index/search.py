@@ -37,6 +37,8 @@ SENTENCE_COVERAGE = RANK_FEATURES.index("sentence_coverage")
 #: 8 showed another passage for 2 of 23 checks (an ``adrift`` claim shares few words with
 #: any passage, so its closest one by meaning may rank low by BM25). SciFact: README.
 PREFILTER_DEPTH = 24
+#: How many queries' BM25 scores a run keeps (a few MB for a 1,000-PDF library).
+SCORED_QUERIES = 512
 
 
 class VectorRows(Protocol):
@@ -81,7 +83,7 @@ class EvidenceIndex:
         self.vectors = rows
         self.prefilter = prefilter
         self._lexical = LexicalIndex([p.text for p in self.passages])
-        self._last_query: tuple[str, np.ndarray] | None = None
+        self._scored: dict[str, np.ndarray] = {}
         self._pages = np.asarray([p.page for p in self.passages], dtype=int)
         positions: dict[str, list[int]] = {}
         for position, passage in enumerate(self.passages):
@@ -94,14 +96,19 @@ class EvidenceIndex:
         return self._first_ordinal.get(passage.source) == passage.ordinal
 
     def _lexical_scores(self, query: str) -> np.ndarray:
-        """BM25 scores of the query over all passages, kept for the query searched last.
+        """BM25 scores of the query over all passages, kept for the last :data:`SCORED_QUERIES` queries.
 
-        One claim is searched several times (per cited work, per cited page, across the
-        folder for a better source); scoring it once saves most of a warm run's BM25 time.
+        One claim is searched several times (for the pre-filter before judging, per cited
+        work, per cited page, across the folder for a better source); scoring it once saves
+        most of a warm run's BM25 time. The pre-filter pass scores every claim before the
+        judge reads the first, so one remembered query was not enough.
         """
-        if self._last_query is None or self._last_query[0] != query:
-            self._last_query = (query, self._lexical.scores(query))
-        return self._last_query[1]
+        scores = self._scored.get(query)
+        if scores is None:
+            if len(self._scored) >= SCORED_QUERIES:
+                self._scored.pop(next(iter(self._scored)))  # the oldest
+            scores = self._scored[query] = self._lexical.scores(query)
+        return scores
 
     def lexical_ceiling(self, query: str) -> float:
         """The best BM25 score of ``query`` over the folder: what fused scores scale BM25 by."""
