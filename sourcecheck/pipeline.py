@@ -385,7 +385,7 @@ def judge_all(prepared: Prepared, draft_path: Path, sources_dir: Path, progress:
     return Report(
         draft=str(draft_path),
         sources=str(sources_dir),
-        model=ModelInfo(name=prepared.encoder.name, path=str(prepared.encoder.path)),
+        model=ModelInfo(prepared.encoder.name, str(prepared.encoder.path), prepared.encoder.backend),
         claims=results,
         references=draft.references,
         matches=prepared.matches,
