@@ -183,6 +183,20 @@ def main_title(title: str) -> str | None:
     return None
 
 
+@lru_cache(maxsize=1 << 16)
+def title_forms(title: str) -> tuple[tuple[str, float], ...]:
+    """A title folded, and its main title folded at :data:`MAIN_TITLE_FACTOR` when it has one.
+
+    Cached: over a library every entry's title meets every file's title lines, so the same
+    strings were split and folded once per (entry, file) pair.
+    """
+    main = main_title(title)
+    forms = [(fold(title), 1.0)]
+    if main:
+        forms.append((fold(main), MAIN_TITLE_FACTOR))
+    return tuple(forms)
+
+
 def printed_titles(source: Source) -> list[str]:
     """The titles the source shows of itself: as typeset, and its metadata title if plausible."""
     identity = source.identity

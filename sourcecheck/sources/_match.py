@@ -38,9 +38,9 @@ from sourcecheck.sources._evidence import (
     entry_dois,
     fold,
     is_short,
-    main_title,
     printed_author_points,
     printed_titles,
+    title_forms,
 )
 from sourcecheck.text import find_dois, normalize_doi
 
@@ -54,8 +54,6 @@ TITLE_THRESHOLD = 90
 #: least this ``fuzz.ratio``: spelling variants ("randomized"/"randomised" 90) pass,
 #: different words ("adults"/"adolescents" 71, "long"/"short" 44) fail.
 WORD_FLOOR = 80
-#: Discount for matching only the main title, before a colon (the subtitle missing).
-MAIN_TITLE_FACTOR = 0.95
 #: How many first-page paragraphs may hold the title.
 TITLE_LINES = 12
 #: Similarity given to a DOI found in the text rather than in the metadata.
@@ -97,23 +95,17 @@ def title_similarity(reference_title: str, candidates: Iterable[str]) -> float:
 
     A candidate passes when its ``fuzz.ratio`` with the title is at least
     :data:`TITLE_THRESHOLD` and the content words align (:data:`WORD_FLOOR`). Either side
-    may also be compared by its main title alone, at :data:`MAIN_TITLE_FACTOR`.
+    may also be compared by its main title alone, discounted (``_evidence.MAIN_TITLE_FACTOR``).
     """
-    ref_main = main_title(reference_title)
-    refs = [(_fold(reference_title), 1.0)]
-    if ref_main:
-        refs.append((_fold(ref_main), MAIN_TITLE_FACTOR))
+    refs = title_forms(reference_title)
     best = 0.0
     for raw in candidates:
-        cand_main = main_title(raw)
-        cands = [(_fold(raw), 1.0)]
-        if cand_main:
-            cands.append((_fold(cand_main), MAIN_TITLE_FACTOR))
         for ref, ref_factor in refs:
-            for cand, cand_factor in cands:
+            for cand, cand_factor in title_forms(raw):
                 if not ref or not cand:
                     continue
-                ratio = fuzz.ratio(ref, cand)
+                # Below the cutoff rapidfuzz returns 0 without finishing the alignment.
+                ratio = fuzz.ratio(ref, cand, score_cutoff=TITLE_THRESHOLD)
                 if ratio >= TITLE_THRESHOLD and _words_align(ref, cand):
                     best = max(best, ratio / 100 * ref_factor * cand_factor)
     return best
