@@ -23,6 +23,7 @@ import json
 import os
 import platform
 import shutil
+import sqlite3
 import subprocess
 import sys
 import time
@@ -35,18 +36,25 @@ from pypdf import PdfReader
 
 REPO = Path(__file__).resolve().parents[1]
 SYNTHETIC_DIR = REPO / "bench" / "out" / "synthetic"
+#: PDFs of ten pages in the scaling runs: 100, 200, 400 and 800 pages.
+SCALING_PDFS = (10, 20, 40, 80)
 DEMO_DRAFT = REPO / "sample_manuscript" / "draft.md"
 DEMO_SOURCES = REPO / "sample_sources"
 
 
 @dataclass
 class Measured:
-    """One child run: wall time, its own peak RSS (from wait4), exit code, stderr tail."""
+    """One child run: wall time, CPU time and peak RSS (from wait4), exit code, stderr tail.
+
+    The CPU time (user + system, the child and the workers it reaped) moves far less than
+    the wall time when other jobs share the machine, so both are reported.
+    """
 
     seconds: float
     peak_rss_mb: float
     exit_code: int
     stderr_tail: str = ""
+    cpu_seconds: float = 0.0
 
 
 @dataclass
@@ -84,17 +92,17 @@ def run_measured(command: list[str], log: Path) -> Measured:
         seconds = time.perf_counter() - start
     child.returncode = os.waitstatus_to_exitcode(status)  # reaped here, so Popen must not wait
     tail = "\n".join(log.read_text(encoding="utf-8", errors="replace").strip().splitlines()[-5:])
-    return Measured(round(seconds, 2), round(usage.ru_maxrss / 1024, 1), child.returncode, tail)
+    cpu = usage.ru_utime + usage.ru_stime
+    return Measured(round(seconds, 2), round(usage.ru_maxrss / 1024, 1), child.returncode, tail, round(cpu, 2))
 
 
-def npy_snapshot(cache: Path) -> dict[str, int]:
-    """Every embedding file under the cache, with its modification time in nanoseconds."""
-    return {str(p.relative_to(cache)): p.stat().st_mtime_ns for p in cache.rglob("*.npy")}
-
-
-def written_between(before: dict[str, int], after: dict[str, int]) -> int:
-    """Files that are new or were rewritten (changed mtime) between two snapshots."""
-    return sum(1 for name, mtime in after.items() if before.get(name) != mtime)
+def stored_vectors(cache: Path) -> int:
+    """How many embeddings the cache's vector store holds (0 when there is none yet)."""
+    path = cache / "vectors.sqlite"
+    if not path.is_file():
+        return 0
+    with sqlite3.connect(path) as db:
+        return int(db.execute("SELECT COUNT(*) FROM vectors").fetchone()[0])
 
 
 def count_pages(sources: Path) -> tuple[int, int]:
@@ -173,12 +181,12 @@ def measure_corpus(name: str, draft: Path, sources: Path, out: Path) -> CorpusRe
     if result.cold.exit_code != 0:
         result.error = f"cold run exited {result.cold.exit_code}: {result.cold.stderr_tail}"
         return result
-    before = npy_snapshot(cache)
-    result.embeddings_after_cold = len(before)
+    before = stored_vectors(cache)
+    result.embeddings_after_cold = before
     command = check_command(draft, sources, cache, work / "warm.json")
     print(f"[{name}] warm: {' '.join(command)}", file=sys.stderr)
     result.warm = run_measured(command, work / "warm.log")
-    result.embeddings_written_warm = written_between(before, npy_snapshot(cache))
+    result.embeddings_written_warm = stored_vectors(cache) - before
     if result.warm.exit_code != 0:
         result.error = f"warm run exited {result.warm.exit_code}: {result.warm.stderr_tail}"
         return result
@@ -228,10 +236,10 @@ def _cell(value: object) -> str:
 def markdown(results: list[CorpusResult], machine: dict[str, str]) -> str:
     """The results table, machine facts below it, then any failure or note."""
     head = (
-        "| corpus | PDFs | pages | claims | cold s | warm s | warm/cold | peak RSS cold MB "
-        "| peak RSS warm MB | embeddings written on warm run |"
+        "| corpus | PDFs | pages | claims | cold s | warm s | warm/cold | cold CPU s | warm CPU s "
+        "| peak RSS cold MB | peak RSS warm MB | embeddings after cold | written on warm run |"
     )
-    lines = [head, "|" + "---|" * 10]
+    lines = [head, "|" + "---|" * 13]
     for r in results:
         ratio = f"{r.warm.seconds / r.cold.seconds:.2f}" if r.cold and r.warm and r.cold.seconds else None
         cells = [
@@ -242,8 +250,11 @@ def markdown(results: list[CorpusResult], machine: dict[str, str]) -> str:
             r.cold.seconds if r.cold else None,
             r.warm.seconds if r.warm else None,
             ratio,
+            r.cold.cpu_seconds if r.cold else None,
+            r.warm.cpu_seconds if r.warm else None,
             r.cold.peak_rss_mb if r.cold else None,
             r.warm.peak_rss_mb if r.warm else None,
+            r.embeddings_after_cold,
             r.embeddings_written_warm,
         ]
         lines.append("| " + " | ".join(_cell(c) for c in cells) + " |")
@@ -256,9 +267,87 @@ def markdown(results: list[CorpusResult], machine: dict[str, str]) -> str:
     return "\n".join(lines) + "\n"
 
 
+def measure_limit(result: CorpusResult, out: Path) -> dict[str, float]:
+    """pypdf alone plus the int8 model alone on what the cold run embedded (bench/limits.py)."""
+    cache = out / result.corpus / "cache"
+    command = [sys.executable, str(REPO / "bench" / "limits.py"), result.draft, result.sources, str(cache)]
+    done = subprocess.run(command, cwd=REPO, capture_output=True, text=True, check=False)
+    if done.returncode != 0:
+        return {"error": 1.0}
+    limit: dict[str, float] = json.loads(done.stdout.strip().splitlines()[-1])
+    floor = limit["pypdf_s"] + limit["model_load_s"] + limit["model_s"]
+    limit["limit_s"] = round(floor, 2)
+    if result.cold and floor:
+        limit["cold_over_limit"] = round(result.cold.seconds / floor, 2)
+    return limit
+
+
+def scaling(out: Path, pages_per_pdf: int = 10) -> list[CorpusResult]:
+    """Cold and warm runs at 100, 200, 400 and 800 pages (10-page PDFs, two claims per PDF)."""
+    results = []
+    for pdfs in SCALING_PDFS:
+        folder = out / "corpora" / f"scale-{pdfs}x{pages_per_pdf}"
+        if not (folder / "draft.md").is_file():
+            load_builder().build(folder, pdfs=pdfs, pages=pages_per_pdf)
+        results.append(measure_corpus(f"scale-{pdfs * pages_per_pdf}p", folder / "draft.md", folder / "sources", out))
+    return results
+
+
+def library(out: Path) -> list[CorpusResult]:
+    """A 1,000-PDF library indexed once, then a new 40-reference manuscript checked against it.
+
+    The library is two generated corpora in one folder: 960 one-page PDFs with their draft
+    (the run that indexes the library) and 40 two-page PDFs whose draft is the new manuscript,
+    checked second on the same cache: only its own claims' candidates are new.
+    """
+    root = out / "corpora" / "library"
+    first, second, shelf = root / "first", root / "second", root / "sources"
+    if not (shelf / "done").is_file():
+        builder = load_builder()
+        builder.build(first, pdfs=960, pages=1, claims=120, seed=1)
+        builder.build(second, pdfs=40, pages=2, seed=2)
+        shelf.mkdir(parents=True, exist_ok=True)
+        for part in (first, second):
+            for pdf in (part / "sources").glob("*.pdf"):
+                shutil.copy2(pdf, shelf / f"{part.name}-{pdf.name}")
+        (shelf / "done").write_text("built\n", encoding="utf-8")
+    work = out / "library"
+    cache = work / "cache"
+    shutil.rmtree(cache, ignore_errors=True)
+    results = []
+    for name, draft in (
+        ("library: index 1,000 PDFs", first / "draft.md"),
+        ("library: new manuscript", second / "draft.md"),
+    ):
+        result = CorpusResult(name, _display(draft), _display(shelf))
+        result.pdfs, result.pages = count_pages(shelf)
+        result.embeddings_after_cold = stored_vectors(cache)
+        command = check_command(draft, shelf, cache, work / f"{draft.parent.name}.json")
+        print(f"[{name}] {' '.join(command)}", file=sys.stderr)
+        result.cold = run_measured(command, work / f"{draft.parent.name}.log")
+        if result.cold.exit_code != 0:
+            result.error = f"exited {result.cold.exit_code}: {result.cold.stderr_tail}"
+        else:
+            report = json.loads((work / f"{draft.parent.name}.json").read_text(encoding="utf-8"))
+            result.claims = len(report.get("claims", []))
+            result.notes.append(f"vectors written: {stored_vectors(cache) - (result.embeddings_after_cold or 0)}")
+        results.append(result)
+    return results
+
+
+def load_line() -> str:
+    """The 1, 5 and 15 minute load averages, as ``uptime`` prints them."""
+    return ", ".join(f"{x:.2f}" for x in os.getloadavg()) if hasattr(os, "getloadavg") else ""
+
+
 def parse_args(argv: list[str] | None) -> argparse.Namespace:
     parser = argparse.ArgumentParser(description="Time sourcecheck cold and warm, with peak memory.")
     parser.add_argument("--corpus", choices=("demo", "synthetic", "both"), default="both")
+    parser.add_argument(
+        "--parts",
+        default="corpora,limit,scaling,library",
+        help="comma-separated: corpora (demo and/or synthetic), limit, scaling, library (default: all)",
+    )
     parser.add_argument("--out", type=Path, default=REPO / "bench" / "out" / "speed")
     parser.add_argument("--markdown", type=Path, metavar="FILE", help="also write the table to FILE")
     parser.add_argument("--synthetic-dir", type=Path, default=SYNTHETIC_DIR, help=argparse.SUPPRESS)
@@ -269,18 +358,30 @@ def main(argv: list[str] | None = None) -> int:
     args = parse_args(argv)
     out = args.out.resolve()
     machine = machine_info()
+    parts = set(args.parts.split(","))
     results: list[CorpusResult] = []
-    if args.corpus in ("demo", "both"):
+    extra: list[str] = []
+    if "corpora" in parts and args.corpus in ("demo", "both"):
         results.append(measure_corpus("demo", DEMO_DRAFT, DEMO_SOURCES, out))
-    if args.corpus in ("synthetic", "both"):
+    if "corpora" in parts and args.corpus in ("synthetic", "both"):
         folder = args.synthetic_dir.resolve()
         try:
             ensure_synthetic(folder)
         except (OSError, ValueError, RuntimeError) as exc:
             results.append(CorpusResult("synthetic", _display(folder), "", error=f"could not build: {exc}"))
         else:
-            results.append(measure_corpus("synthetic", folder / "draft.md", folder / "sources", out))
-    table = markdown(results, machine)
+            synthetic = measure_corpus("synthetic", folder / "draft.md", folder / "sources", out)
+            results.append(synthetic)
+            if "limit" in parts and not synthetic.error:
+                limit = measure_limit(synthetic, out)
+                extra.append(f"- limit on the synthetic corpus (load {load_line()}): {json.dumps(limit)}")
+    if "scaling" in parts:
+        results += scaling(out)
+        extra.append(f"- load after the scaling runs: {load_line()}")
+    if "library" in parts:
+        results += library(out)
+        extra.append(f"- load after the library runs: {load_line()}")
+    table = markdown(results, machine) + "\n".join(extra) + ("\n" if extra else "")
     out.mkdir(parents=True, exist_ok=True)
     payload = {"machine": machine, "results": [asdict(r) for r in results]}
     (out / "results.json").write_text(json.dumps(payload, indent=2) + "\n", encoding="utf-8")

@@ -15,7 +15,7 @@ from sourcecheck.errors import BibliographyUnreadable
 from sourcecheck.limits import Limits
 from sourcecheck.model import Problem, ReadOptions, Report, RunStats
 
-#: Called as ``progress(stage, done, total)`` while sources are read and embedded.
+#: Called as ``progress(stage, done, total)`` as the run goes (stages: read, load model, embed, judge).
 Progress = Callable[[str, int, int], None]
 
 
@@ -32,6 +32,8 @@ def check(
     mapping: str | os.PathLike[str] | None = None,
     model: str | None = None,
     verifier: str | os.PathLike[str] | None = None,
+    backend: str = "onnx-int8",
+    jobs: int | None = None,
     cache: str | os.PathLike[str] | None = None,
     progress: Progress | None = None,
     stats: RunStats | None = None,
@@ -48,8 +50,12 @@ def check(
         mapping: CSV (``key,file``) or TOML file pinning references to files.
         model: another local sentence-transformers model folder.
         verifier: another local entailment verifier folder (an ONNX model and its tokenizer.json).
+        backend: how the embedding model runs: ``onnx-int8`` (quantised to int8 once, run by
+            ONNX Runtime) or ``torch`` (sentence-transformers in fp32).
+        jobs: worker processes that read PDFs (default: one per core).
         cache: where passages and vectors are cached (default: the user cache directory).
-        progress: called as ``progress(stage, done, total)`` while sources are read and embedded.
+        progress: called as ``progress(stage, done, total)`` as the run goes: stages ``read``,
+            ``load model``, ``embed`` and ``judge``.
         stats: counters of what the run cost, filled in as it goes.
         limits: how much of each file is read (``sourcecheck.Limits``; the defaults when None).
         follow_links: read source PDFs that are symbolic links to files outside ``sources``.
@@ -70,6 +76,8 @@ def check(
         mapping=mapping,
         model=model,
         verifier=verifier,
+        backend=backend,
+        jobs=jobs,
         cache=cache,
         progress=progress,
         stats=stats,
@@ -87,6 +95,8 @@ def check_many(
     mapping: str | os.PathLike[str] | None = None,
     model: str | None = None,
     verifier: str | os.PathLike[str] | None = None,
+    backend: str = "onnx-int8",
+    jobs: int | None = None,
     cache: str | os.PathLike[str] | None = None,
     progress: Progress | None = None,
     stats: RunStats | None = None,
@@ -116,6 +126,8 @@ def check_many(
         mapping=Path(mapping) if mapping is not None else None,
         model=model,
         verifier=str(verifier) if verifier is not None else None,
+        backend=backend,
+        jobs=jobs,
         cache_dir=Path(cache) if cache is not None else None,
         progress=progress or _quiet,
         stats=stats,

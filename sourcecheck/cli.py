@@ -32,6 +32,8 @@ EXIT_INTERNAL = 70
 FORMATS_IN = ("markdown", "word", "latex", "pdf")
 #: The bands ``--fail-on`` takes, least severe first (sourcecheck.workflow.GATE_BANDS; a test keeps them equal).
 GATE_BANDS = ("loose", "unverifiable", "adrift", "conflict")
+#: ``--backend`` names (sourcecheck.index.BACKENDS; a test keeps them equal), the default first.
+BACKENDS = ("onnx-int8", "torch")
 #: Report format -> file extension for ``--output-dir``.
 EXTENSIONS = {"text": "txt", "json": "json", "html": "html", "markdown": "md", "sarif": "sarif"}
 
@@ -51,6 +53,17 @@ def _version() -> str:
     return f"sourcecheck {__version__}"
 
 
+def _positive(text: str) -> int:
+    """An integer of at least 1, for ``--jobs``."""
+    try:
+        value = int(text)
+    except ValueError:
+        value = 0
+    if value < 1:
+        raise argparse.ArgumentTypeError(f"expected a whole number of at least 1, got {text!r}")
+    return value
+
+
 def _run_options() -> argparse.ArgumentParser:
     """Options every command that runs a check shares; unset ones are None so settings files can fill them."""
     options = argparse.ArgumentParser(add_help=False)
@@ -61,6 +74,14 @@ def _run_options() -> argparse.ArgumentParser:
     options.add_argument("--model", metavar="PATH", help="local sentence-transformers model folder (default: bundled)")
     options.add_argument(
         "--verifier", metavar="PATH", help="local entailment verifier folder (default: the one shipped in the package)"
+    )
+    options.add_argument(
+        "--backend",
+        choices=BACKENDS,
+        help="how the embedding model runs: onnx-int8 (int8 ONNX Runtime, the default) or torch (fp32)",
+    )
+    options.add_argument(
+        "--jobs", type=_positive, metavar="N", help="worker processes reading PDFs (default: one per core)"
     )
     options.add_argument("--cache", type=Path, metavar="DIR", help="cache folder (default: the user cache directory)")
     options.add_argument("--bib", type=Path, metavar="FILE", help="bibliography file for the draft's citation keys")

@@ -330,10 +330,15 @@ class RunStats:
 
 @dataclass(frozen=True)
 class ModelInfo:
-    """Which embedding model ran, so a report can be reproduced."""
+    """Which embedding model ran, and how, so a report can be reproduced.
+
+    ``backend`` is ``onnx-int8`` or ``torch``: the two give slightly different vectors
+    (int8 weights), so the same model folder can score a passage a hundredth apart.
+    """
 
     name: str
     path: str
+    backend: str = "onnx-int8"
 
 
 @dataclass

@@ -52,6 +52,8 @@ def check_options(args: argparse.Namespace) -> dict[str, Any]:
         "mapping": args.map,
         "model": args.model,
         "verifier": getattr(args, "verifier", None),
+        "backend": getattr(args, "backend", None) or "onnx-int8",
+        "jobs": getattr(args, "jobs", None),
         "cache": args.cache,
         "follow_links": bool(getattr(args, "follow_links", False)),
     }

@@ -210,3 +210,30 @@ def test_sources_folder_without_a_readable_pdf_is_one_line(
     ]
     assert all(r["source"] is None and r["closest_source"] is None for r in data["references"])
     assert "Traceback" not in err
+
+
+@pytest.mark.parametrize("jobs", ["0", "-2", "many"])
+def test_jobs_must_be_a_positive_whole_number(capsys: pytest.CaptureFixture[str], jobs: str) -> None:
+    with pytest.raises(SystemExit) as exit_info:
+        main(["check", "draft.md", "--sources", "pdfs", "--jobs", jobs])
+    assert exit_info.value.code == 2
+    assert "--jobs" in capsys.readouterr().err
+
+
+def test_backend_choices_are_the_index_backends_default_first() -> None:
+    from sourcecheck.cli import BACKENDS
+    from sourcecheck.index import BACKENDS as INDEX_BACKENDS
+    from sourcecheck.index import DEFAULT_BACKEND
+
+    assert BACKENDS == INDEX_BACKENDS and BACKENDS[0] == DEFAULT_BACKEND
+
+
+def test_jobs_is_not_a_setting_of_a_shared_file(tmp_path: Path) -> None:
+    # How many cores to use belongs to the machine, not to the project's settings file.
+    from sourcecheck.cli import settings_parser
+    from sourcecheck.workflow import load_settings
+
+    file = tmp_path / "sourcecheck.toml"
+    file.write_text('jobs = "2"\nbackend = "torch"\n', encoding="utf-8")
+    settings = load_settings(file, settings_parser())
+    assert settings.unknown == ("jobs",) and settings.values == {"backend": "torch"}

@@ -69,27 +69,31 @@ def test_a_folder_of_three_manuscripts_reads_and_embeds_each_source_once(
 ) -> None:
     folder = _three_manuscripts(tmp_path / "submissions")
     read: list[str] = []
-    embedded: list[int] = []
-    real_read, real_embed = sourcecheck.pipeline.read_source, sourcecheck.pipeline.embed_sources
+    embedded: list[str] = []
+    import sourcecheck.sources._parallel as reading
+    from sourcecheck.index import Encoder
+
+    real_read, real_encode = reading.read_source, Encoder.encode
 
     def counting_read(pdf: Path, *args: Any, **kwargs: Any) -> Any:
         read.append(pdf.name)
         return real_read(pdf, *args, **kwargs)
 
-    def counting_embed(sources: list[Any], *args: Any) -> Any:
-        embedded.append(len(sources))
-        return real_embed(sources, *args)
+    def counting_encode(self: Encoder, texts: Any) -> Any:
+        embedded.extend(texts)
+        return real_encode(self, texts)
 
-    monkeypatch.setattr(sourcecheck.pipeline, "read_source", counting_read)
-    monkeypatch.setattr(sourcecheck.pipeline, "embed_sources", counting_embed)
+    monkeypatch.setattr(reading, "read_source", counting_read)
+    monkeypatch.setattr(Encoder, "encode", counting_encode)
     out_dir = tmp_path / "reports"
     code, out, _ = run_cli(
         capsys, "check", str(folder), "--sources", str(SOURCES), "--cache", str(tmp_path / "cache"),
-        "--format", "json", "--output-dir", str(out_dir), "--quiet",
+        "--format", "json", "--output-dir", str(out_dir), "--quiet", "--jobs", "1",
     )  # fmt: skip
     assert code == EXIT_OK
     assert sorted(read) == sorted(p.name for p in PDFS)  # a fresh cache: each PDF read exactly once
-    assert embedded == [len(PDFS)]  # one embedding pass over all sources, not one per manuscript
+    # Each passage and claim embedded once for the three manuscripts, not once per manuscript.
+    assert embedded and len(embedded) == len(set(embedded))
     assert sorted(p.name for p in out_dir.iterdir()) == ["draft.docx.json", "draft.md.json", "draft.tex.json"]
     reports = {p.name: json.loads(p.read_text(encoding="utf-8")) for p in out_dir.iterdir()}
     assert {c["location"]["unit"] for c in reports["draft.docx.json"]["claims"]} == {"paragraph"}

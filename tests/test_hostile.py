@@ -58,7 +58,7 @@ def folder(tmp_path_factory: pytest.TempPathFactory) -> Path:
 
 @pytest.fixture(autouse=True)
 def shared_model(encoder, monkeypatch: pytest.MonkeyPatch) -> None:
-    monkeypatch.setattr("sourcecheck.pipeline.Encoder", lambda path: encoder)
+    monkeypatch.setattr("sourcecheck.pipeline.Encoder", lambda path, *args, **kwargs: encoder)
 
 
 def _run(capsys: pytest.CaptureFixture[str], folder: Path, draft: str, *extra: str) -> tuple[int, dict, list[str]]:

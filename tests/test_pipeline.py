@@ -8,6 +8,8 @@ from __future__ import annotations
 
 import re
 import socket
+import subprocess
+import sys
 from pathlib import Path
 
 import pytest
@@ -15,6 +17,7 @@ import pytest
 import sourcecheck
 from sourcecheck import RunStats
 from sourcecheck.model import Band, Report
+from sourcecheck.reports import dumps
 
 ROOT = Path(__file__).resolve().parent.parent
 DRAFT = ROOT / "sample_manuscript" / "draft.md"
@@ -101,6 +104,7 @@ def test_each_planted_case_gets_its_band_and_reason(cold, row: dict[str, str]) -
 
 def test_planted_table_covers_every_band_and_every_check(cold) -> None:
     report = cold[0]
+    assert report.model.backend == "onnx-int8"  # the default: the planted bands hold on int8
     rows = planted_rows()
     assert {r["band"] for r in rows} == {b.value for b in Band}
     assert sum(len(r.checks) for r in report.claims) == len(rows)
@@ -149,16 +153,55 @@ def test_warm_run_embeds_nothing_and_loads_no_model(cold, demo_cache: Path) -> N
     assert bands == [(c.citation.label, c.band) for r in cold[0].claims for c in r.checks]
 
 
-def test_corrupt_cache_entry_is_rebuilt_with_a_warning(cold, demo_cache: Path, tmp_path: Path) -> None:
+def test_warm_run_imports_no_model_library(cold, demo_cache: Path) -> None:
+    # In a fresh interpreter, as a user's second run: no model runtime may even be imported.
+    # (tokenizers, 20 ms to import, comes with the verifier's encoding module and is not one.)
+    probe = (
+        "import sys, sourcecheck\n"
+        f"sourcecheck.check({str(DRAFT)!r}, {str(SOURCES)!r}, cache={str(demo_cache)!r})\n"
+        "heavy = ('torch', 'onnxruntime', 'sentence_transformers', 'transformers')\n"
+        "print(sorted(m for m in sys.modules if m.split('.')[0] in heavy))\n"
+    )
+    done = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True, check=True, cwd=ROOT)
+    assert done.stdout.strip() == "[]", done.stdout[-500:]
+
+
+def test_parallel_reading_reports_what_a_serial_run_does(cold, tmp_path: Path) -> None:
+    serial = sourcecheck.check(DRAFT, SOURCES, cache=tmp_path / "serial", jobs=1)
+    parallel = sourcecheck.check(DRAFT, SOURCES, cache=tmp_path / "parallel", jobs=2)
+    assert dumps(parallel) == dumps(serial)
+    assert dumps(serial) == dumps(cold[0])
+
+
+def test_corrupt_vector_store_is_rebuilt_with_a_warning(cold, demo_cache: Path, tmp_path: Path) -> None:
     import shutil
 
     cache = tmp_path / "cache"
     shutil.copytree(demo_cache, cache)
-    victim = sorted((cache / "passages").glob("*.npy"))[0]
-    victim.write_bytes(b"not an array")
+    victim = cache / "vectors.sqlite"
+    for extra in cache.glob("vectors.sqlite-*"):
+        extra.unlink()
+    victim.write_bytes(b"not a database" * 100)
     stats = RunStats()
     report = sourcecheck.check(DRAFT, SOURCES, cache=cache, stats=stats)
     assert stats.passages_embedded > 0
+    assert any("rebuilt" in p.message for p in report.problems)
+    assert re.search(r"vectors\.sqlite", " ".join(p.message for p in report.problems))
+    assert [(c.citation.label, c.band) for r in report.claims for c in r.checks] == [
+        (c.citation.label, c.band) for r in cold[0].claims for c in r.checks
+    ]
+
+
+def test_corrupt_verifier_reading_is_rebuilt_with_a_warning(cold, demo_cache: Path, tmp_path: Path) -> None:
+    import shutil
+
+    cache = tmp_path / "cache"
+    shutil.copytree(demo_cache, cache)
+    victim = sorted((cache / "verdicts").glob("*.npy"))[0]
+    victim.write_bytes(b"not an array")
+    stats = RunStats()
+    report = sourcecheck.check(DRAFT, SOURCES, cache=cache, stats=stats)
+    assert stats.pairs_verified > 0 and stats.passages_embedded == 0
     assert any("rebuilt" in p.message for p in report.problems)
     assert re.search(r"\.npy", " ".join(p.message for p in report.problems))
 

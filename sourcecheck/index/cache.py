@@ -1,12 +1,14 @@
-"""On-disk cache of extracted passages and their embeddings.
+"""On-disk cache of extracted passages, their embeddings and the verifier's readings.
 
-Reading and embedding a PDF is the slow part of a run (MiniLM on two CPU cores embeds
-about 23 passages a second), so each source is read and embedded once. Entries are keyed
-by the file's content hash plus the extractor version (passages) and the model
-fingerprint (embeddings): renaming a file costs nothing, changing it or the extractor or
-the model rebuilds it. Writes go to a temporary file that is renamed into place, so a run
-killed half-way never leaves a half-written entry; an entry that fails to load is
-treated as missing, rebuilt, and reported once as a warning.
+Reading and embedding a PDF is the slow part of a run, so each source is read once and
+each passage embedded once. Passages are keyed by the file's content hash plus the
+extractor version; embeddings, one by one, by the hash of the model fingerprint and the
+text (:mod:`.vectors`, one SQLite file); the verifier's readings by the hash of its
+model and the pairs (``.npy`` files). Renaming a file costs nothing, changing it or the
+extractor or the model rebuilds it. Writes go to a temporary file that is renamed into
+place (or into one SQLite transaction), so a run killed half-way never leaves a
+half-written entry; an entry that fails to load is treated as missing, rebuilt, and
+reported once as a warning.
 """
 
 from __future__ import annotations
@@ -22,7 +24,11 @@ import numpy as np
 import platformdirs
 
 from sourcecheck.index.entries import FORMAT, MAX_ENTRY_BYTES, load_npy, no_constant, source_from_entry
+from sourcecheck.index.vectors import VectorStore
 from sourcecheck.model import Source
+
+#: The embeddings of passages and claims, by hash of model and text (:class:`VectorStore`).
+VECTOR_FILE = "vectors.sqlite"
 
 
 def default_cache_dir() -> Path:
@@ -59,8 +65,9 @@ class Cache:
     def __init__(self, root: Path) -> None:
         self.root = root
         self.warnings: list[str] = []
-        self.vectors_written = 0
         self.writable = True
+        self._rows_written = 0
+        self._store: VectorStore | None = None
 
     # passages ------------------------------------------------------------------------
 
@@ -97,6 +104,18 @@ class Cache:
 
     # vectors -------------------------------------------------------------------------
 
+    def vector_store(self) -> VectorStore:
+        """The store of embeddings by text hash in this cache (see :mod:`.vectors`)."""
+        if self._store is None:
+            self._store = VectorStore(self.root / VECTOR_FILE, self.warnings, on_unwritable=self._unwritable)
+            self._store.writable = self.writable
+        return self._store
+
+    @property
+    def vectors_written(self) -> int:
+        """Vectors (and readings) this run added to the cache."""
+        return self._rows_written + (self._store.written if self._store is not None else 0)
+
     def _vector_file(self, kind: str, key: str) -> Path:
         return self.root / kind / f"{key}.npy"
 
@@ -126,7 +145,7 @@ class Cache:
         buffer = io.BytesIO()
         np.save(buffer, np.asarray(array, dtype=np.float32), allow_pickle=False)
         if self._write(self._vector_file(kind, key), buffer.getvalue()):
-            self.vectors_written += array.shape[0]
+            self._rows_written += array.shape[0]
 
     # failures ------------------------------------------------------------------------
 
@@ -142,7 +161,13 @@ class Cache:
             _atomic_write(path, data)
             return True
         except OSError as exc:
-            self.writable = False
-            reason = exc.strerror or type(exc).__name__
-            self.warnings.append(f"cache folder cannot be written ({reason}); this run goes on without saving to it")
+            self._unwritable(exc.strerror or type(exc).__name__)
             return False
+
+    def _unwritable(self, reason: str) -> None:
+        """Note, once, that nothing more is saved to this cache in this run."""
+        if self._store is not None:
+            self._store.writable = False
+        if self.writable:
+            self.writable = False
+            self.warnings.append(f"cache folder cannot be written ({reason}); this run goes on without saving to it")

@@ -4,11 +4,18 @@ The fused score is a weighted sum of the cosine similarity and the BM25 score sc
 its largest value for the query across the folder. the project's design notes measured that inside one
 cited document MiniLM alone finds the rationale first more often than reciprocal rank
 fusion with BM25; the weight below was set on SciFact (see DEVELOPERS.md, "Calibration").
+
+Lexical first: of the passages a search may return (one source, some pages of it, or the
+whole folder), only the :data:`PREFILTER_DEPTH` best by BM25 are embedded and fused. A
+passage that shares almost no words with the claim gets little of the fused score's BM25
+share and, on prose, rarely the best cosine either; embedding every passage of a library
+for the few that can win was most of a cold run's time.
 """
 
 from __future__ import annotations
 
 from collections.abc import Sequence
+from typing import Protocol
 
 import numpy as np
 
@@ -24,18 +31,59 @@ DENSE_WEIGHT = 0.7
 # more, and the folder-wide search for a better source needs only its head re-sorted.
 RERANK_DEPTH = 40
 SENTENCE_COVERAGE = RANK_FEATURES.index("sentence_coverage")
+#: How many passages, best by BM25, a search embeds and fuses. Measured against fusing
+#: every passage (2026-12-02): on the generated 40-PDF corpus (about 63 passages a PDF) 24
+#: changed no band of 93 checks and 12 changed 3; on the demo (7 to 12 passages a source)
+#: 8 showed another passage for 2 of 23 checks (an ``adrift`` claim shares few words with
+#: any passage, so its closest one by meaning may rank low by BM25). SciFact: README.
+PREFILTER_DEPTH = 24
+#: How many queries' BM25 scores a run keeps (a few MB for a 1,000-PDF library).
+SCORED_QUERIES = 512
+
+
+class VectorRows(Protocol):
+    """Passage vectors by position, fetched (or made) on request: :class:`.vectors.LazyVectors`."""
+
+    def __len__(self) -> int: ...
+
+    def rows(self, positions: Sequence[int] | np.ndarray) -> np.ndarray: ...
+
+
+class ArrayRows:
+    """Vectors already in memory, one row per passage."""
+
+    def __init__(self, array: np.ndarray) -> None:
+        self._array = array if array.size else np.zeros((0, 1), dtype=np.float32)
+
+    def __len__(self) -> int:
+        return int(self._array.shape[0])
+
+    def rows(self, positions: Sequence[int] | np.ndarray) -> np.ndarray:
+        return self._array[np.asarray(positions, dtype=int)]
 
 
 class EvidenceIndex:
-    """Every passage of every readable source, searchable by claim, optionally per source."""
+    """Every passage of every readable source, searchable by claim, optionally per source.
 
-    def __init__(self, passages: Sequence[Passage], vectors: np.ndarray) -> None:
-        if len(passages) != (vectors.shape[0] if vectors.size else 0):
+    ``vectors`` is a matrix with one row per passage or a :class:`VectorRows` that makes
+    them on request; ``prefilter`` is how many BM25-best candidates a search embeds
+    (``None``: all of them).
+    """
+
+    def __init__(
+        self,
+        passages: Sequence[Passage],
+        vectors: np.ndarray | VectorRows,
+        prefilter: int | None = PREFILTER_DEPTH,
+    ) -> None:
+        rows: VectorRows = ArrayRows(vectors) if isinstance(vectors, np.ndarray) else vectors
+        if len(passages) != len(rows):
             raise ValueError("one vector per passage is required")
         self.passages = list(passages)
-        self._vectors = vectors if vectors.size else np.zeros((0, 1), dtype=np.float32)
+        self.vectors = rows
+        self.prefilter = prefilter
         self._lexical = LexicalIndex([p.text for p in self.passages])
-        self._last_query: tuple[str, np.ndarray] | None = None
+        self._scored: dict[str, np.ndarray] = {}
         self._pages = np.asarray([p.page for p in self.passages], dtype=int)
         positions: dict[str, list[int]] = {}
         for position, passage in enumerate(self.passages):
@@ -48,14 +96,19 @@ class EvidenceIndex:
         return self._first_ordinal.get(passage.source) == passage.ordinal
 
     def _lexical_scores(self, query: str) -> np.ndarray:
-        """BM25 scores of the query over all passages, kept for the query searched last.
+        """BM25 scores of the query over all passages, kept for the last :data:`SCORED_QUERIES` queries.
 
-        One claim is searched several times (per cited work, per cited page, across the
-        folder for a better source); scoring it once saves most of a warm run's BM25 time.
+        One claim is searched several times (for the pre-filter before judging, per cited
+        work, per cited page, across the folder for a better source); scoring it once saves
+        most of a warm run's BM25 time. The pre-filter pass scores every claim before the
+        judge reads the first, so one remembered query was not enough.
         """
-        if self._last_query is None or self._last_query[0] != query:
-            self._last_query = (query, self._lexical.scores(query))
-        return self._last_query[1]
+        scores = self._scored.get(query)
+        if scores is None:
+            if len(self._scored) >= SCORED_QUERIES:
+                self._scored.pop(next(iter(self._scored)))  # the oldest
+            scores = self._scored[query] = self._lexical.scores(query)
+        return scores
 
     def lexical_ceiling(self, query: str) -> float:
         """The best BM25 score of ``query`` over the folder: what fused scores scale BM25 by."""
@@ -65,6 +118,20 @@ class EvidenceIndex:
     def sources(self) -> list[str]:
         """Display paths of the sources that have at least one passage."""
         return list(self._by_source)
+
+    def candidates(self, query: str, source: str | None = None, pages: set[int] | None = None) -> np.ndarray:
+        """Positions a search may return, in passage order: the BM25-best ``prefilter`` of the allowed ones."""
+        if source is None:
+            allowed = np.arange(len(self.passages))
+        else:
+            allowed = self._by_source.get(source, np.zeros(0, dtype=int))
+        if pages is not None and allowed.size:
+            allowed = allowed[np.isin(self._pages[allowed], sorted(pages))]
+        if self.prefilter is None or allowed.size <= self.prefilter:
+            return allowed
+        lexical = self._lexical_scores(query)[allowed]
+        best = np.argsort(-lexical, kind="stable")[: self.prefilter]
+        return allowed[np.sort(best)]
 
     def search(
         self,
@@ -85,19 +152,14 @@ class EvidenceIndex:
         With an active ``ranker`` the best RERANK_DEPTH candidates of the fused score are
         put in the ranker's order, and ``Hit.fused`` holds the ranker's score.
         """
-        if source is None:
-            candidates = np.arange(len(self.passages))
-        else:
-            candidates = self._by_source.get(source, np.zeros(0, dtype=int))
-        if pages is not None and candidates.size:
-            candidates = candidates[np.isin(self._pages[candidates], sorted(pages))]
+        candidates = self.candidates(query, source, pages)
         if candidates.size == 0:
             return []
         lexical_all = self._lexical_scores(query)
         top_lexical = float(lexical_all.max()) if lexical_all.size else 0.0
         lexical = lexical_all[candidates]
         scaled = lexical / top_lexical if top_lexical > 0 else np.zeros_like(lexical)
-        dense = self._vectors[candidates] @ np.asarray(query_vector, dtype=np.float32)
+        dense = self.vectors.rows(candidates) @ np.asarray(query_vector, dtype=np.float32)
         fused = dense_weight * dense + (1.0 - dense_weight) * scaled
         if ranker is not None and ranker.active:
             return self._reranked(query, candidates, fused, dense, lexical, scaled, k, ranker)

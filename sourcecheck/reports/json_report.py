@@ -96,7 +96,7 @@ def to_dict(report: Report) -> dict[str, Any]:
         "caution": CAUTION,
         "draft": report.draft,
         "sources": report.sources,
-        "model": {"name": report.model.name, "path": report.model.path},
+        "model": {"name": report.model.name, "path": report.model.path, "backend": report.model.backend},
         "summary": {band.value: count for band, count in report.band_counts().items()},
         "claims": [
             {

@@ -38,9 +38,9 @@ from sourcecheck.sources._evidence import (
     entry_dois,
     fold,
     is_short,
-    main_title,
     printed_author_points,
     printed_titles,
+    title_forms,
 )
 from sourcecheck.text import find_dois, normalize_doi
 
@@ -54,8 +54,6 @@ TITLE_THRESHOLD = 90
 #: least this ``fuzz.ratio``: spelling variants ("randomized"/"randomised" 90) pass,
 #: different words ("adults"/"adolescents" 71, "long"/"short" 44) fail.
 WORD_FLOOR = 80
-#: Discount for matching only the main title, before a colon (the subtitle missing).
-MAIN_TITLE_FACTOR = 0.95
 #: How many first-page paragraphs may hold the title.
 TITLE_LINES = 12
 #: Similarity given to a DOI found in the text rather than in the metadata.
@@ -97,23 +95,17 @@ def title_similarity(reference_title: str, candidates: Iterable[str]) -> float:
 
     A candidate passes when its ``fuzz.ratio`` with the title is at least
     :data:`TITLE_THRESHOLD` and the content words align (:data:`WORD_FLOOR`). Either side
-    may also be compared by its main title alone, at :data:`MAIN_TITLE_FACTOR`.
+    may also be compared by its main title alone, discounted (``_evidence.MAIN_TITLE_FACTOR``).
     """
-    ref_main = main_title(reference_title)
-    refs = [(_fold(reference_title), 1.0)]
-    if ref_main:
-        refs.append((_fold(ref_main), MAIN_TITLE_FACTOR))
+    refs = title_forms(reference_title)
     best = 0.0
     for raw in candidates:
-        cand_main = main_title(raw)
-        cands = [(_fold(raw), 1.0)]
-        if cand_main:
-            cands.append((_fold(cand_main), MAIN_TITLE_FACTOR))
         for ref, ref_factor in refs:
-            for cand, cand_factor in cands:
+            for cand, cand_factor in title_forms(raw):
                 if not ref or not cand:
                     continue
-                ratio = fuzz.ratio(ref, cand)
+                # Below the cutoff rapidfuzz returns 0 without finishing the alignment.
+                ratio = fuzz.ratio(ref, cand, score_cutoff=TITLE_THRESHOLD)
                 if ratio >= TITLE_THRESHOLD and _words_align(ref, cand):
                     best = max(best, ratio / 100 * ref_factor * cand_factor)
     return best
@@ -226,12 +218,29 @@ def _id_evidence(reference: Reference, source: Source, page_dois: set[str]) -> _
     return 0.0, None, 0.0, ""
 
 
-def pair_evidence(reference: Reference, source: Source, page_dois: set[str]) -> Evidence:
-    """All the evidence that ``reference`` cites ``source``, weighed (see sources/_evidence.py)."""
+#: A source's title candidates by (file, title length in words): see :func:`pair_evidence`.
+TitleLines = dict[tuple[str, int], list[str]]
+
+
+def pair_evidence(
+    reference: Reference, source: Source, page_dois: set[str], title_lines: TitleLines | None = None
+) -> Evidence:
+    """All the evidence that ``reference`` cites ``source``, weighed (see sources/_evidence.py).
+
+    ``title_lines`` keeps each source's title candidates for one matching run: every entry
+    is weighed against every file, and a library of 1,000 files made the same candidates
+    for every entry of a 1,000-entry list.
+    """
     kinds: list[_Kind] = [_id_evidence(reference, source, page_dois)]
     closeness = 0.0
     if reference.title and _fold(reference.title):
-        parsed = title_similarity(reference.title, title_candidates(source, len(reference.title.split())))
+        n = len(reference.title.split())
+        lines = title_lines.get((source.path, n)) if title_lines is not None else None
+        if lines is None:
+            lines = title_candidates(source, n)
+            if title_lines is not None:
+                title_lines[(source.path, n)] = lines
+        parsed = title_similarity(reference.title, lines)
         closeness = parsed
         kinds.append((TITLE_POINTS * parsed, MatchMethod.TITLE, parsed, f"title alike ({parsed:.2f})"))
     found, close, title = best_title_in_entry(source, reference.text)
@@ -299,7 +308,8 @@ def match_sources(
     refs = [r for r in references if r.key not in outcome.matches]
     free = [s for s in sources if s.path not in used]
     page_dois = {s.path: set(s.identity.dois) | _doi_evidence(s) for s in free}
-    evidence = [[pair_evidence(r, s, page_dois[s.path]) for s in free] for r in refs]
+    title_lines: TitleLines = {}
+    evidence = [[pair_evidence(r, s, page_dois[s.path], title_lines) for s in free] for r in refs]
     points = np.array([[e.points for e in row] for row in evidence], dtype=float).reshape(len(refs), len(free))
     chosen, ties = assign(points, MATCH_FLOOR)
     for pair in chosen:

@@ -26,8 +26,8 @@ from sourcecheck.errors import SettingsError
 CONFIG_NAMES = ("sourcecheck.toml", "pyproject.toml")
 #: Keys that are not command-line options.
 EXTRA_KEYS = ("ignore",)
-#: Options that make no sense in a shared file: one run's output.
-NOT_SETTINGS = ("output", "help", "version", "config")
+#: Options that make no sense in a shared file: one run's output, one machine's cores.
+NOT_SETTINGS = ("output", "help", "version", "config", "jobs")
 
 
 @dataclass(frozen=True)

@@ -1,8 +1,8 @@
 """The layer contract: which package may import which, and only through its face.
 
-The pipeline is draft -> claims -> sources -> index -> judgment -> report, over two shared
-layers (plain text, PDF text) and one vocabulary (model, errors, limits). A stage reads another
-package only through that package's ``__init__`` (its face, with an explicit
+The pipeline is draft -> claims -> sources -> index -> judgment -> report, over three shared
+layers (plain text, PDF text, model inference) and one vocabulary (model, errors, limits). A
+stage reads another package only through that package's ``__init__`` (its face, with an explicit
 ``__all__``), and only the packages listed in ``ALLOWED`` below. Adding a cross-stage
 import of a private module, or a new dependency between stages, fails here first.
 """
@@ -19,7 +19,7 @@ ROOT = Path(__file__).resolve().parents[2]
 PACKAGE = ROOT / "sourcecheck"
 
 VOCABULARY = {"model", "errors", "limits"}
-SHARED = {"text", "pdftext"}
+SHARED = {"text", "pdftext", "inference"}
 STAGES = {"drafts", "claims", "sources", "index", "judge", "reports"}
 #: What people do with reports (gates, review state, settings, batches): beside the stages, reading only the vocabulary.
 WORKFLOW = {"workflow"}
@@ -32,11 +32,12 @@ ALLOWED: dict[str, set[str]] = {
     "limits": set(),
     "text": set(),
     "pdftext": {"text", "errors", "model"},
+    "inference": {"errors"},
     "drafts": VOCABULARY | SHARED | {"claims"},
     "claims": VOCABULARY | {"text"},
     "sources": VOCABULARY | SHARED,
-    "index": VOCABULARY | {"text"},
-    "judge": VOCABULARY | {"text"},
+    "index": VOCABULARY | {"text", "inference"},
+    "judge": VOCABULARY | {"text", "inference"},
     "reports": VOCABULARY | {"text"},
     "workflow": VOCABULARY,
 }

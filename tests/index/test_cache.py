@@ -63,9 +63,11 @@ def test_vectors_round_trip_and_wrong_shape_is_rebuilt(tmp_path: Path) -> None:
 def test_writes_leave_no_temporary_files(tmp_path: Path) -> None:
     cache = Cache(tmp_path)
     cache.save_source(_source(), "x1")
-    cache.save_vectors("passages", "k", np.zeros((1, 2)))
+    cache.save_vectors("verdicts", "k", np.zeros((1, 2)))
+    cache.vector_store().put_many([("k", np.zeros(2))])
     leftovers = [p for p in tmp_path.rglob("*") if p.name.startswith(".tmp-")]
     assert leftovers == []
+    assert cache.vectors_written == 2
 
 
 def test_printed_page_numbers_survive_the_round_trip(tmp_path: Path) -> None:
@@ -135,7 +137,8 @@ def test_a_cache_path_that_is_a_file_is_reported_once_and_the_run_goes_on(tmp_pa
     assert cache.load_source("ab" * 32, "x1", "a.pdf") is None
     cache.save_source(_source(), "x1")
     cache.save_vectors("passages", "k", np.ones((2, 3), dtype=np.float32))
-    assert cache.writable is False
+    cache.vector_store().put_many([("k", np.ones(3))])
+    assert cache.writable is False and cache.vectors_written == 0
     assert cache.warnings == ["cache folder cannot be written (Not a directory); this run goes on without saving to it"]
 
 

@@ -163,3 +163,38 @@ def test_the_first_passage_of_each_source_is_known_and_a_ranker_can_weigh_it() -
     assert plain[0].passage.ordinal == 2
     later = Ranker({"dense": 1.0, "opens_source": -1.0}, margin=0.05)
     assert index.search(SILENT_QUERY, QUERY, source="a.pdf", k=2, ranker=later)[0].passage.ordinal == 3
+
+
+def test_prefilter_embeds_only_the_lexically_best_candidates() -> None:
+    class Recording:
+        """Vectors by position, remembering which positions a search asked for."""
+
+        def __init__(self, array: np.ndarray) -> None:
+            self.array, self.asked = array, set()
+
+        def __len__(self) -> int:
+            return len(self.array)
+
+        def rows(self, positions: object) -> np.ndarray:
+            chosen = np.asarray(positions, dtype=int)
+            self.asked.update(int(p) for p in chosen)
+            return self.array[chosen]
+
+    vectors = Recording(_vectors())
+    index = EvidenceIndex(PASSAGES, vectors, prefilter=2)
+    hits = index.search("salinity after dredging", np.array([0, 1, 0, 0], dtype=np.float32), k=4)
+    # Only the two passages sharing the query's words are embedded and can be returned,
+    # even though the query vector points at another passage.
+    assert vectors.asked == {0, 3}
+    assert {h.passage.ordinal for h in hits} == {0, 1} and {h.passage.source for h in hits} == {"a.pdf", "b.pdf"}
+    assert list(index.candidates("salinity after dredging")) == [0, 3]  # in passage order
+    unfiltered = EvidenceIndex(PASSAGES, _vectors(), prefilter=None)
+    assert list(unfiltered.candidates("salinity after dredging")) == [0, 1, 2, 3]
+
+
+def test_prefilter_keeps_results_when_the_winner_is_among_the_lexical_best() -> None:
+    query, vector = "salinity after dredging", np.array([1, 0, 0, 0.2], dtype=np.float32)
+    full = EvidenceIndex(PASSAGES, _vectors(), prefilter=None).search(query, vector, k=2)
+    cut = EvidenceIndex(PASSAGES, _vectors(), prefilter=2).search(query, vector, k=2)
+    assert [h.passage.ordinal for h in full] == [0, 1]
+    assert [(h.passage, h.fused) for h in cut] == [(h.passage, h.fused) for h in full]

@@ -16,7 +16,7 @@ def test_top_level_fields_of_the_contract() -> None:
     assert data["schema"] == SCHEMA == "sourcecheck.report/1"
     for key in ("draft", "sources", "model", "claims", "references", "unused_sources", "problems"):
         assert key in data
-    assert data["model"] == {"name": "all-MiniLM-L6-v2", "path": "/models/minilm"}
+    assert data["model"] == {"name": "all-MiniLM-L6-v2", "path": "/models/minilm", "backend": "onnx-int8"}
     assert data["caution"] == CAUTION
 
 
