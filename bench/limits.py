@@ -8,7 +8,10 @@ It prints one JSON object: ``pypdf_s``, the time pypdf alone takes to open every
 extract every page's text (one process per core, as sourcecheck reads them); and
 ``model_load_s`` and ``model_s``, the time the int8 model takes to load and to embed exactly
 the passages and claims the cold run embedded (those whose vectors are in CACHE's store),
-with ``texts``, how many that is. Their sum is the limit no implementation on the same
+with ``texts``, how many that is; and ``verifier_load_s`` and ``verifier_s``, the time the
+int8 verifier takes to load and to read exactly the (claim, sentence) pairs the cold run
+read, with ``pairs``, how many (found by running the pipeline again on the warm cache and
+noting the pairs it asks for). Their sum is the limit no implementation on the same
 libraries can beat; bench/run.py reports the tool's cold run over it.
 """
 
@@ -55,6 +58,26 @@ def embedded_texts(draft: Path, sources: Path, cache: Path) -> list[str]:
     return list(dict.fromkeys(t for t in texts if vector_key(fingerprint, t) in stored))
 
 
+def verified_pairs(draft: Path, sources: Path, cache: Path) -> list[tuple[str, str]]:
+    """The (claim, sentence) pairs the judge has the verifier read, in order, from a warm run."""
+    from sourcecheck.pipeline import run
+    from sourcecheck.verdicts import CachedScorer
+
+    asked: list[tuple[str, str]] = []
+    original = CachedScorer.score
+
+    def noting(self: CachedScorer, pairs):  # type: ignore[no-untyped-def]
+        asked.extend(pairs)
+        return original(self, pairs)
+
+    CachedScorer.score = noting  # type: ignore[method-assign]
+    try:
+        run(draft, sources, cache_dir=cache)
+    finally:
+        CachedScorer.score = original  # type: ignore[method-assign]
+    return asked
+
+
 def main(argv: list[str] | None = None) -> int:
     parser = argparse.ArgumentParser(description=__doc__.split("\n\n")[0])
     parser.add_argument("draft", type=Path)
@@ -63,6 +86,7 @@ def main(argv: list[str] | None = None) -> int:
     parser.add_argument("--jobs", type=int, default=os.cpu_count() or 1)
     args = parser.parse_args(argv)
     texts = embedded_texts(args.draft, args.sources, args.cache)
+    pairs = verified_pairs(args.draft, args.sources, args.cache)
     pypdf_s = pypdf_seconds(args.sources, args.jobs)
     from sourcecheck.index import Encoder, resolve_model_path
 
@@ -72,11 +96,22 @@ def main(argv: list[str] | None = None) -> int:
     loaded = time.perf_counter()
     encoder.encode(texts)
     done = time.perf_counter()
+    from sourcecheck.judge import Verifier
+
+    verifier = Verifier()
+    verifier.score([("warm-up", "warm-up")])  # loads the session and tokenizer
+    verifier_loaded = time.perf_counter()
+    if pairs:
+        verifier.score(pairs)
+    verified = time.perf_counter()
     result = {
         "pypdf_s": round(pypdf_s, 2),
         "model_load_s": round(loaded - start, 2),
         "model_s": round(done - loaded, 2),
         "texts": len(texts),
+        "verifier_load_s": round(verifier_loaded - done, 2),
+        "verifier_s": round(verified - verifier_loaded, 2),
+        "pairs": len(pairs),
     }
     json.dump(result, sys.stdout)
     sys.stdout.write("\n")

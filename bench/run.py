@@ -268,14 +268,14 @@ def markdown(results: list[CorpusResult], machine: dict[str, str]) -> str:
 
 
 def measure_limit(result: CorpusResult, out: Path) -> dict[str, float]:
-    """pypdf alone plus the int8 model alone on what the cold run embedded (bench/limits.py)."""
+    """pypdf alone plus the int8 models alone on what the cold run embedded and verified (bench/limits.py)."""
     cache = out / result.corpus / "cache"
     command = [sys.executable, str(REPO / "bench" / "limits.py"), result.draft, result.sources, str(cache)]
     done = subprocess.run(command, cwd=REPO, capture_output=True, text=True, check=False)
     if done.returncode != 0:
         return {"error": 1.0}
     limit: dict[str, float] = json.loads(done.stdout.strip().splitlines()[-1])
-    floor = limit["pypdf_s"] + limit["model_load_s"] + limit["model_s"]
+    floor = sum(limit[k] for k in ("pypdf_s", "model_load_s", "model_s", "verifier_load_s", "verifier_s"))
     limit["limit_s"] = round(floor, 2)
     if result.cold and floor:
         limit["cold_over_limit"] = round(result.cold.seconds / floor, 2)
