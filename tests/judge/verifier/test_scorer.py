@@ -195,3 +195,45 @@ def test_a_broken_model_file_is_one_clear_error(tmp_path: Path) -> None:
     (tmp_path / TOKENIZER_FILE).write_bytes((MODEL_DIR / TOKENIZER_FILE).read_bytes())
     with pytest.raises(ModelUnavailable, match="not a loadable ONNX model"):
         Verifier(tmp_path).score([("a", "b")])
+
+
+# Reversals in the same words that the shipped model still reads as agreement (MODEL_CARD.md,
+# "Limits"; DEVELOPERS.md, the second training stage that caught some of them and was not
+# shipped). Strict expected failures, so a model that reads them shows up as an unexpected pass.
+MISSES_SAME_WORDS = pytest.mark.xfail(
+    strict=True, reason="shipped model reads this reversal in the same words as support"
+)
+
+
+@pytest.mark.parametrize(
+    ("claim", "opposite"),
+    [
+        pytest.param(
+            "Sites with more nests were wetter in spring.",
+            "Sites with more nests were drier in spring.",
+            marks=MISSES_SAME_WORDS,
+        ),
+        pytest.param(
+            "Males emerged earlier than females.", "Females emerged earlier than males.", marks=MISSES_SAME_WORDS
+        ),
+        pytest.param(
+            "Scraped plots held more nests than unscraped controls.",
+            "Unscraped controls held more nests than scraped plots.",
+            marks=MISSES_SAME_WORDS,
+        ),
+    ],
+)
+def test_a_reversal_in_the_same_words_is_not_support(verifier: Verifier, claim: str, opposite: str) -> None:
+    assert verifier.score([(claim, opposite)])[0].argmax() != SUPPORTS
+
+
+def test_a_paraphrase_of_absence_is_not_a_contradiction(verifier: Verifier) -> None:
+    # The guard a retrained model must pass: "left unmanaged" and "in the absence of disturbance"
+    # say the same thing (plain English, common practice, no source); a second training stage
+    # that read this as a reversal was not shipped.
+    claim = "Left unmanaged, bare patches on lowland heath become overgrown by heather and grasses within a few years."
+    source = (
+        "In the absence of disturbance, bare patches on lowland heath are overgrown by heather and grasses "
+        "within a few years."
+    )
+    assert verifier.score([(claim, source)])[0].argmax() == SUPPORTS
