@@ -57,3 +57,35 @@ def test_a_clear_winner_is_no_tie() -> None:
 def test_below_the_floor_nothing_is_matched() -> None:
     assert assign(np.array([[0.9, -3.0]]), floor=1.0) == ([], [])
     assert assign(np.zeros((0, 3)), floor=1.0) == ([], [])
+
+
+def _scipy_pairs(weights: np.ndarray) -> list[Pair]:
+    from scipy.optimize import linear_sum_assignment
+
+    rows, cols = linear_sum_assignment(weights, maximize=True)
+    return [Pair(int(r), int(c)) for r, c in zip(rows, cols, strict=True) if weights[r, c] > 0]
+
+
+@pytest.mark.parametrize("seed", range(40))
+def test_the_no_competition_shortcut_gives_the_hungarian_answer(seed: int) -> None:
+    # SciPy's linear_sum_assignment is the reference; sparse matrices like real evidence
+    # (most pairs below the floor, a few rows competing for one file) take both paths.
+    from sourcecheck.sources._assign import _each_row_its_best, _solve
+
+    rng = np.random.default_rng(seed)
+    weights = np.where(rng.random((6, 7)) < 0.25, np.round(rng.uniform(0.5, 9, size=(6, 7)), 1), 0.0)
+    shortcut = _each_row_its_best(weights)
+    if shortcut is not None:
+        assert shortcut == _scipy_pairs(weights)
+    total, pairs = _solve(weights)
+    assert pairs == _scipy_pairs(weights) or total == pytest.approx(
+        sum(weights[p.row, p.col] for p in _scipy_pairs(weights))
+    )
+
+
+def test_the_shortcut_refuses_rows_that_compete() -> None:
+    from sourcecheck.sources._assign import _each_row_its_best
+
+    assert _each_row_its_best(np.array([[5.0, 0.0], [4.0, 0.0]])) is None  # two entries want file 0
+    assert _each_row_its_best(np.array([[5.0, 5.0], [0.0, 4.0]])) is None  # entry 0 is torn between two
+    assert _each_row_its_best(np.array([[5.0, 1.0], [0.0, 4.0]])) == [Pair(0, 0), Pair(1, 1)]
