@@ -2,7 +2,11 @@
 
 import math
 
+import numpy as np
+from rank_bm25 import BM25Okapi
+
 from sourcecheck.index.lexical import K1, B, LexicalIndex
+from sourcecheck.text import tokenize
 
 DOCS = [
     "marsh nest count",
@@ -40,3 +44,16 @@ def test_a_term_in_a_single_passage_ranks_that_passage_first() -> None:
 def test_empty_index_and_empty_query_score_zero() -> None:
     assert LexicalIndex([]).scores("heron").size == 0
     assert not LexicalIndex(DOCS).scores("the of and").any()
+
+
+def test_posting_lists_give_rank_bm25s_own_scores() -> None:
+    # rank-bm25's BM25Okapi.get_scores is the reference: the same statistics and arithmetic,
+    # so the scores must be equal to the last bit, repeated and unknown query terms included.
+    rng = np.random.default_rng(5)
+    words = [f"w{i}" for i in range(60)]
+    texts = [" ".join(rng.choice(words, size=int(rng.integers(3, 40)))) for _ in range(200)]
+    index = LexicalIndex(texts)
+    reference = BM25Okapi([tokenize(t) for t in texts], k1=K1, b=B)
+    for _ in range(30):
+        query = " ".join(rng.choice([*words, "absent"], size=int(rng.integers(1, 12))))
+        assert np.array_equal(index.scores(query), reference.get_scores(tokenize(query)))
