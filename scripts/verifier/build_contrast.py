@@ -62,8 +62,10 @@ def family(pair: Pair) -> str:
     return pair.source.split(":")[0]
 
 
-def contrast_pairs(pairs: list[Pair], per_kind: int, seed: int = SEED) -> tuple[list[Pair], Counter[str]]:
-    """Edited claims of supported pairs (-> contradicts), at most ``per_kind`` of each kind."""
+def contrast_pairs(
+    pairs: list[Pair], per_kind: int, seed: int = SEED, skip: frozenset[str] = frozenset()
+) -> tuple[list[Pair], Counter[str]]:
+    """Edited claims of supported pairs (-> contradicts), at most ``per_kind`` of each kind, none of ``skip``."""
     by_kind: dict[str, list[Pair]] = defaultdict(list)
     seen = {(p.claim, p.evidence) for p in pairs}
 
@@ -79,6 +81,8 @@ def contrast_pairs(pairs: list[Pair], per_kind: int, seed: int = SEED) -> tuple[
         if pair.label != SUPPORTS or family(pair) == "counterfactual":
             continue
         for kind, edit in EDITS.items():
+            if kind in skip:
+                continue
             if kind == "negation-removed" and family(pair) in ("snli", "cad"):
                 continue  # an NLI hypothesis's negation is often its own point ("nobody is sad")
             add(kind, edit(pair.claim), pair.claim, pair, family(pair))
@@ -88,6 +92,8 @@ def contrast_pairs(pairs: list[Pair], per_kind: int, seed: int = SEED) -> tuple[
     for pair in pairs:
         if family(pair) in SELF_FAMILIES:
             for kind, edit in SELF_EDITS.items():
+                if kind in skip:
+                    continue
                 add(kind, edit(pair.evidence), pair.evidence, pair, f"self-{family(pair)}")
     rng = random.Random(seed)
     made: list[Pair] = []
@@ -174,12 +180,13 @@ def main(argv: list[str] | None = None) -> int:
     parser.add_argument("--pairs", type=Path, default=DEFAULT_DIR / "pairs.jsonl", help="the first stage's pairs")
     parser.add_argument("--out", type=Path, default=DEFAULT_DIR / "contrast")
     parser.add_argument("--per-kind", type=int, default=1500)
+    parser.add_argument("--skip", nargs="*", default=[], choices=sorted(EDITS), help="edit kinds to leave out")
     args = parser.parse_args(argv)
     if not args.pairs.is_file():
         print(f"error: {args.pairs}: not found (run scripts/verifier/build_data.py)", file=sys.stderr)
         return 2
     first = list(read_pairs(args.pairs))
-    edited, counts = contrast_pairs(first, args.per_kind)
+    edited, counts = contrast_pairs(first, args.per_kind, skip=frozenset(args.skip))
     balanced, balance_counts = balance_pairs(first)
     written = write_pairs(args.out / "pairs.jsonl", first + edited + balanced)
     stats = {
