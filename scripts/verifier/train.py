@@ -290,6 +290,9 @@ def main(argv: list[str] | None = None) -> int:
     if not (args.data / "pairs.jsonl").is_file():
         print(f"error: {args.data / 'pairs.jsonl'}: not found (run scripts/verifier/build_data.py)", file=sys.stderr)
         return 2
+    if args.init is not None and not (args.init / "config.json").is_file():
+        print(f"error: {args.init}: not a checkpoint folder saved by train.py (no config.json)", file=sys.stderr)
+        return 2
     train(args)
     return 0
 
